@@ -1,0 +1,247 @@
+"""The ``shaftbench`` command: the workbench by default, and scriptable subcommands.
+
+    shaftbench [--demo] [--log PATH]        open the workbench (Textual)
+    shaftbench check   [job options] [--json] [--save ...]
+    shaftbench substitute --shaft SPEC [--json]
+    shaftbench stock --profile square [--system metric] [--materials a,b] [job options] [--json]
+    shaftbench log ...                      the job log (list, show, export, import, card, ...)
+
+Exit codes: 0 computed, 2 bad input (one line on stderr, never a traceback).
+Nothing heavy is imported at module level: ``--help`` and ``--version`` build no unit registry.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+
+from workbench import __version__
+
+EXIT_OK = 0
+EXIT_BAD_INPUT = 2
+
+# (option, input key, help). Every option is a string exactly as typed; the job contract reads it.
+JOB_OPTIONS = (
+    ("--power", "power", "motor nameplate power, e.g. '7.5 kW' or '10 hp' (bare number: kW)"),
+    ("--speed", "speed", "motor nameplate speed, e.g. '1450 rpm' (bare number: rpm)"),
+    ("--torque", "torque", "torque at the shaft instead of power and speed, e.g. '50 N*m', '400 lbf*in'"),
+    ("--ratio", "ratio", "speed reduction motor -> shaft (default 1)"),
+    ("--efficiency", "efficiency", "drive efficiency, '0.95' or '95%%' (default 1)"),
+    ("--service-factor", "service_factor", "service factor of the driven machine's duty (default 1)"),
+    ("--peak-factor", "peak_factor", "start/peak torque as a multiple of running torque (default 2)"),
+    ("--mount", "mount", "coupling | sprocket | timing-belt | gear | vbelt | flat-belt (default coupling)"),
+    ("--pitch-diameter", "pitch_diameter", "pitch diameter of the pulley/sprocket/gear (bare: mm)"),
+    ("--overhang", "overhang", "nearest bearing to the element's load line (bare: mm)"),
+    ("--shaft", "shaft", "the shaft as found, e.g. 'round 35mm keyed'"),
+    ("--candidate", "candidate", "the replacement, e.g. 'square 30mm', 'flat 50mm x 20mm', 'hex 27mm'"),
+    ("--material", "material", "material key for both shafts (default 1045-cd), or 'custom Sy=350MPa Sut=600MPa'"),
+    ("--candidate-material", "candidate_material", "material of the candidate, if different"),
+    ("--required-sf", "required_sf", "required safety factor for the verdict (default 1.5)"),
+    ("--criterion", "criterion", "fatigue criterion: goodman (default), gerber, asme-elliptic, soderberg"),
+    ("--reliability", "reliability", "fatigue reliability, e.g. 0.9 (default) or 99%%"),
+    ("--twist-limit", "twist_limit", "allowed twist, e.g. '0.25 deg/m' (default 1 deg over 20 diameters)"),
+)
+
+
+class _Parser(argparse.ArgumentParser):
+    """argparse that reports a usage error in one line and exits 2."""
+
+    def error(self, message: str) -> None:  # noqa: D102 - argparse hook
+        sys.stderr.write(f"shaftbench: {message} (see shaftbench {self.prog.split()[-1]} --help)\n"
+                         if " " in self.prog else f"shaftbench: {message} (see shaftbench --help)\n")
+        raise SystemExit(EXIT_BAD_INPUT)
+
+
+def _add_job_options(parser: argparse.ArgumentParser, only: tuple[str, ...] | None = None) -> None:
+    group = parser.add_argument_group("job")
+    for option, key, text in JOB_OPTIONS:
+        if only is None or key in only:
+            group.add_argument(option, dest=key, metavar="TEXT", help=text)
+
+
+def _add_output_options(parser: argparse.ArgumentParser) -> None:
+    parser.add_argument("--json", action="store_true", help="print one JSON object (SI units) instead of the report")
+    parser.add_argument("--units", choices=("metric", "inch"), default="metric", help="units of the report")
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = _Parser(
+        prog="shaftbench",
+        description="Bench checks for replacement shafts of motor drives. With no subcommand, opens the workbench.",
+        epilog="Results are a bench check, not a design approval: lock out the drive, refit guards, and "
+        "defer to local codes and a licensed engineer.",
+    )
+    parser.add_argument("--version", action="version", version=f"shaftbench {__version__}")
+    parser.add_argument("--demo", action="store_true", help="open the workbench on the demo job")
+    parser.add_argument("--log", metavar="PATH", help="job log file (default: $SHAFTBENCH_LOG or the user data dir)")
+    commands = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
+
+    check = commands.add_parser("check", help="check the shaft as found and/or a candidate")
+    _add_job_options(check)
+    _add_output_options(check)
+    check.add_argument("--demo", action="store_true", help="start from the demo job (options given override it)")
+    _add_save_options(check)
+    check.set_defaults(func=run_check)
+
+    substitute = commands.add_parser("substitute", help="equivalent square, flat, hex and tube sizes for a shaft")
+    _add_job_options(substitute, only=("shaft", "candidate"))
+    _add_output_options(substitute)
+    substitute.set_defaults(func=run_substitute)
+
+    stock = commands.add_parser("stock", help="check standard stock sizes and find the smallest that passes")
+    _add_job_options(stock)
+    _add_output_options(stock)
+    stock.add_argument("--demo", action="store_true", help="start from the demo job")
+    stock.add_argument("--profile", default="round", help="round | square | flat | hex | tube (default round)")
+    stock.add_argument("--system", default="metric", help="metric | inch (default metric)")
+    stock.add_argument("--materials", metavar="KEYS", help="comma-separated material keys (default: the job's)")
+    stock.add_argument("--all", action="store_true", help="list every size, not only up to the first passes")
+    stock.set_defaults(func=run_stock)
+
+    _add_log_command(commands)
+    return parser
+
+
+def _add_save_options(parser: argparse.ArgumentParser) -> None:
+    try:
+        from workbench.cli_log import add_save_options
+    except ImportError:  # the job log module is optional while it is being built
+        return
+    add_save_options(parser)
+
+
+def _add_log_command(commands) -> None:
+    try:
+        from workbench.cli_log import add_log_command
+    except ImportError:
+        return
+    add_log_command(commands)
+
+
+def _inputs_from(args: argparse.Namespace) -> dict[str, str]:
+    inputs: dict[str, str] = {}
+    if getattr(args, "demo", False):
+        from workbench.demo import demo_inputs
+
+        inputs.update(demo_inputs())
+    for _, key, _ in JOB_OPTIONS:
+        value = getattr(args, key, None)
+        if value is not None:
+            inputs[key] = value
+    return inputs
+
+
+def _print_json(data: dict) -> None:
+    sys.stdout.write(json.dumps(data, indent=2, allow_nan=False) + "\n")
+
+
+def _render(renderable) -> None:
+    from rich.console import Console
+
+    Console().print(renderable)
+
+
+def run_check(args: argparse.Namespace) -> int:
+    from workbench.job import evaluate_inputs
+
+    inputs = _inputs_from(args)
+    result = evaluate_inputs(inputs)
+    job_id = None
+    if getattr(args, "save", False):
+        from workbench.cli_log import save_from_args
+
+        job_id = save_from_args(args, inputs, result)
+    if args.json:
+        if job_id is not None:
+            result = {**result, "job_id": job_id}
+        _print_json(result)
+    else:
+        from workbench.report.check_report import render_check
+
+        _render(render_check(result, args.units))
+        if job_id is not None:
+            print(f"saved as job {job_id}")
+    return EXIT_OK
+
+
+def run_substitute(args: argparse.Namespace) -> int:
+    from workbench.job import substitute_inputs
+
+    result = substitute_inputs(_inputs_from(args))
+    if args.json:
+        _print_json(result)
+    else:
+        from workbench.report.check_report import render_substitution
+
+        _render(render_substitution(result, args.units))
+    return EXIT_OK
+
+
+def run_stock(args: argparse.Namespace) -> int:
+    from workbench.job import stock_inputs
+
+    keys = [k.strip() for k in args.materials.split(",") if k.strip()] if args.materials else None
+    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.system.lower(), keys)
+    if not args.all:
+        result = {**result, "rows": _up_to_first_passes(result["rows"])}
+    if args.json:
+        _print_json(result)
+    else:
+        from workbench.report.check_report import render_stock
+
+        _render(render_stock(result, args.units))
+    return EXIT_OK
+
+
+def _up_to_first_passes(rows: list[dict]) -> list[dict]:
+    """Rows of each material up to and including its first pass (the rest only grow)."""
+    done: set[str] = set()
+    kept = []
+    for row in rows:
+        if row["material"] in done:
+            continue
+        kept.append(row)
+        if row["verdict"] == "pass":
+            done.add(row["material"])
+    return kept
+
+
+def run_workbench(args: argparse.Namespace) -> int:
+    from workbench.tui.app import run
+
+    return run(demo=args.demo, log_path=args.log)
+
+
+def main(argv: list[str] | None = None) -> int:
+    parser = build_parser()
+    args = parser.parse_args(argv)
+    func = getattr(args, "func", None) or run_workbench
+    try:
+        return func(args)
+    except Exception as err:  # user-caused errors are messages; anything else is our bug
+        from workbench.job import JobInputError
+
+        if isinstance(err, JobInputError):
+            sys.stderr.write(f"shaftbench: {err}\n")
+            return EXIT_BAD_INPUT
+        user_errors = _user_error_types()
+        if isinstance(err, user_errors):
+            sys.stderr.write(f"shaftbench: {err}\n")
+            return EXIT_BAD_INPUT
+        raise
+
+
+def _user_error_types() -> tuple[type[BaseException], ...]:
+    types: list[type[BaseException]] = []
+    try:
+        from workbench.store.log import LogError
+
+        types.append(LogError)
+    except ImportError:
+        pass
+    return tuple(types)
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())

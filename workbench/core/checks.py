@@ -1,0 +1,227 @@
+"""The checks of one shaft and its verdict: static yield, fatigue, twist, mass.
+
+A rotating shaft with a steady torque and a side load fixed in space sees fully reversed bending
+and steady torsion (Shigley's Mechanical Engineering Design, 9th ed., Sec. 7-4):
+Ma = M, Mm = 0, Tm = T, Ta = 0. Fatigue is checked at the DESIGN torque (running x service
+factor); static yield at the PEAK torque (running x start/peak factor), the side load scaling with
+the torque it transmits. The section is checked at the bearing nearest the mounted element, where
+the overhung moment is largest; keyseat and shoulder factors are applied there (conservative).
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass, field
+
+from workbench.core import fatigue
+from workbench.core.drive import DriveLoads
+from workbench.core.loads import Mount, overhung_moment_Nm, side_load_N
+from workbench.core.sections import Section
+from workbench.core.stress_raisers import stress_raisers
+
+DISTORTION_ENERGY_SHEAR = 0.577  # Ssy = 0.577 Sy (Shigley 9th ed., Eq. 5-21)
+MARGINAL_BAND = 0.10  # within 10 % above the required factor reads "marginal" (our own rule, stated)
+TWIST_DIAMETERS = 20.0  # 1 degree over 20 diameters (common practice)
+
+
+@dataclass(frozen=True)
+class Settings:
+    """What a verdict is judged against.
+
+    required_sf: required safety factor on static and fatigue checks [-]; default 1.5 (common
+                 practice for shafts with well-known loads, cf. Shigley 9th ed., Ex. 7-2 design factor)
+    criterion:   fatigue criterion key (see fatigue.CRITERIA)
+    reliability: fatigue reliability for the Marin factor ke
+    twist_limit_deg_per_m: allowed twist rate; None = 1 degree over 20 diameters (common practice)
+    """
+
+    required_sf: float = 1.5
+    criterion: str = "goodman"
+    reliability: float = 0.90
+    twist_limit_deg_per_m: float | None = None
+
+
+@dataclass(frozen=True)
+class MaterialProps:
+    """The strengths and constants a check needs [Pa, kg/m^3]."""
+
+    key: str
+    name: str
+    tensile_Pa: float
+    yield_Pa: float
+    G_Pa: float
+    density_kg_m3: float
+
+
+@dataclass(frozen=True)
+class ShaftCheck:
+    """Everything computed for one shaft (SI)."""
+
+    section: Section
+    material: MaterialProps
+    side_load_N: float
+    bending_moment_Nm: float
+    max_shear_stress_Pa: float
+    bending_stress_Pa: float
+    von_mises_stress_Pa: float
+    tresca_stress_Pa: float
+    twist_deg_per_m: float
+    twist_limit_deg_per_m: float
+    mass_kg_per_m: float
+    marin: dict[str, float]
+    endurance_limit_Pa: float
+    Kt: float
+    Kts: float
+    Kf: float
+    Kfs: float
+    feature: str
+    fatigue_criterion: str
+    fatigue_alt_Pa: float
+    fatigue_mean_Pa: float
+    peak_von_mises_Pa: float
+    static_safety_factor: float
+    shear_yield_safety_factor: float
+    fatigue_safety_factor: float
+    verdict: str
+    governing: str
+    why: str
+    methods: dict[str, str] = field(default_factory=dict)
+
+    @property
+    def min_safety_factor(self) -> float:
+        return min(self.static_safety_factor, self.fatigue_safety_factor)
+
+
+def _feature_factors(section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float]:
+    """(feature, Kt, Kts, Kf, Kfs) at the checked section; the worst present feature governs each."""
+    g = section.geometry
+    table = stress_raisers()
+    present = []
+    if g.keyed and g.profile in ("round", "tube"):
+        present.append(table["keyseat"])
+    if g.shoulder == "sharp":
+        present.append(table["sharp-shoulder"])
+    elif g.shoulder == "rounded":
+        present.append(table["round-shoulder"])
+    if not present:
+        return "plain bar", 1.0, 1.0, 1.0, 1.0
+    d_m = section.size_factor_diameter_m
+    sqrt_a_b = fatigue.neuber_sqrt_a_bending(tensile_Pa)
+    sqrt_a_t = fatigue.neuber_sqrt_a_torsion(tensile_Pa)
+    rows = []
+    for raiser in present:
+        radius = raiser.notch_radius_per_d * d_m
+        kf = fatigue.fatigue_notch_factor(raiser.Kt, radius, sqrt_a_b)
+        kfs = fatigue.fatigue_notch_factor(raiser.Kts, radius, sqrt_a_t)
+        rows.append((raiser.feature, raiser.Kt, raiser.Kts, kf, kfs))
+    worst = max(rows, key=lambda row: max(row[3], row[4]))
+    return (worst[0], *(max(row[i] for row in rows) for i in range(1, 5)))
+
+
+def twist_limit_deg_per_m(section: Section, settings: Settings) -> float:
+    """Allowed twist rate [deg/m]: the stated limit, or 1 degree over 20 diameters (common practice),
+    using the diameter of the round of equal torsional stiffness."""
+    if settings.twist_limit_deg_per_m:
+        return settings.twist_limit_deg_per_m
+    return 1.0 / (TWIST_DIAMETERS * section.stiffness_diameter_m)
+
+
+def check_shaft(
+    section: Section, material: MaterialProps, loads: DriveLoads, mount: Mount, settings: Settings
+) -> ShaftCheck:
+    """Run every check on one shaft and give its verdict.
+
+    Stresses: tau = T (tau/T) of the section; sigma_b = M / Z (rotating, worst orientation).
+    Combined nominal stresses at design torque: von Mises sqrt(s^2 + 3 t^2), Tresca sqrt(s^2 + 4 t^2)
+    (Shigley 9th ed., Sec. 5-4/5-5). Fatigue: Shigley 9th ed., Eqs. 7-5..7-14 with Se of Eq. 6-18.
+    Static: first-cycle yield at peak torque, n = Sy / sigma'_max (Eqs. 7-15, 7-16), and shear
+    yield n = 0.577 Sy / (Kfs tau_peak). Twist rate theta' = T / (G J) [rad/m] at design torque.
+    Verdict: fail if the lowest of the static and fatigue factors is below ``required_sf``;
+    marginal if it is within 10 % above it, or the twist rate exceeds its limit; pass otherwise.
+    """
+    g = section.geometry
+    feature, kt, kts, kf, kfs = _feature_factors(section, material.tensile_Pa)
+    tau_per_t = section.shear_per_torque_Pa_per_Nm
+    z = section.section_modulus_m3
+
+    force_design = side_load_N(loads.design_torque_Nm, mount.pitch_diameter_m, mount.load_factor)
+    moment_design = overhung_moment_Nm(force_design, mount.overhang_m)
+    force_peak = side_load_N(loads.peak_torque_Nm, mount.pitch_diameter_m, mount.load_factor)
+    moment_peak = overhung_moment_Nm(force_peak, mount.overhang_m)
+
+    tau = loads.design_torque_Nm * tau_per_t
+    sigma = moment_design / z
+    von_mises = math.sqrt(sigma**2 + 3.0 * tau**2)
+    tresca = math.sqrt(sigma**2 + 4.0 * tau**2)
+
+    marin = fatigue.marin_factors(g.finish, material.tensile_Pa, section.size_factor_diameter_m, settings.reliability)
+    se = fatigue.endurance_limit_Pa(material.tensile_Pa, marin)
+    alt, mean = fatigue.von_mises_amplitudes(kf * sigma, 0.0, 0.0, kfs * tau)
+    n_fatigue = fatigue.fatigue_safety_factor(settings.criterion, alt, mean, se, material.tensile_Pa, material.yield_Pa)
+
+    tau_peak = loads.peak_torque_Nm * tau_per_t
+    sigma_peak = moment_peak / z
+    peak_vm = fatigue.first_cycle_yield_stress_Pa(kf * sigma_peak, kfs * tau_peak)
+    n_static = material.yield_Pa / peak_vm if peak_vm > 0 else math.inf
+    n_shear = DISTORTION_ENERGY_SHEAR * material.yield_Pa / (kfs * tau_peak) if tau_peak > 0 else math.inf
+
+    twist = math.degrees(loads.design_torque_Nm / (material.G_Pa * section.torsion_constant_m4))
+    limit = twist_limit_deg_per_m(section, settings)
+
+    verdict, governing, why = _verdict(n_static, n_fatigue, twist, limit, feature, settings)
+    methods = dict(section.methods)
+    methods["fatigue"] = f"{fatigue.CRITERIA[settings.criterion]}, Shigley 9th ed. Eqs. 7-5..7-14; Se by Eq. 6-18"
+    methods["static"] = "first-cycle yield at peak torque, Shigley 9th ed. Eqs. 7-15/7-16"
+    methods["twist"] = "theta = T/(G J) at design torque; limit " + (
+        "as given" if settings.twist_limit_deg_per_m else "1 deg over 20 diameters (common practice)"
+    )
+    return ShaftCheck(
+        section=section,
+        material=material,
+        side_load_N=force_design,
+        bending_moment_Nm=moment_design,
+        max_shear_stress_Pa=tau,
+        bending_stress_Pa=sigma,
+        von_mises_stress_Pa=von_mises,
+        tresca_stress_Pa=tresca,
+        twist_deg_per_m=twist,
+        twist_limit_deg_per_m=limit,
+        mass_kg_per_m=section.area_m2 * material.density_kg_m3,
+        marin=marin,
+        endurance_limit_Pa=se,
+        Kt=kt,
+        Kts=kts,
+        Kf=kf,
+        Kfs=kfs,
+        feature=feature,
+        fatigue_criterion=fatigue.CRITERIA[settings.criterion],
+        fatigue_alt_Pa=alt,
+        fatigue_mean_Pa=mean,
+        peak_von_mises_Pa=peak_vm,
+        static_safety_factor=n_static,
+        shear_yield_safety_factor=n_shear,
+        fatigue_safety_factor=n_fatigue,
+        verdict=verdict,
+        governing=governing,
+        why=why,
+        methods=methods,
+    )
+
+
+def _verdict(
+    n_static: float, n_fatigue: float, twist: float, limit: float, feature: str, settings: Settings
+) -> tuple[str, str, str]:
+    """(verdict, governing check, one-line why) from the safety factors and the twist rate."""
+    where = "in the plain bar" if feature == "plain bar" else f"at the {feature}"
+    if n_fatigue <= n_static:
+        governing, n, what = "fatigue", n_fatigue, f"fatigue {where}"
+    else:
+        governing, n, what = "static", n_static, f"yield at peak torque {where}"
+    required = settings.required_sf
+    if n < required:
+        return "fail", governing, f"{what}: n = {n:.2f} is below the required {required:g}"
+    if twist > limit:
+        return "marginal", "twist", f"twist {twist:.2f} deg/m exceeds the {limit:.2f} deg/m limit (strength n = {n:.2f})"
+    if n < required * (1.0 + MARGINAL_BAND):
+        return "marginal", governing, f"{what}: n = {n:.2f} is within 10 % of the required {required:g}"
+    return "pass", governing, f"{what} governs: n = {n:.2f} against the required {required:g}"

@@ -1,0 +1,431 @@
+"""The job contract: inputs exactly as typed (a dict of strings) -> a JSON-ready result dict.
+
+The CLI, the workbench and the job log all go through :func:`evaluate_inputs`; the keys of both
+dicts are documented in DEVELOPERS.md ("The job contract") and are stable.
+"""
+
+from __future__ import annotations
+
+import math
+from typing import Mapping
+
+from workbench import __version__
+from workbench.cautions import CAUTIONS
+from workbench.core.checks import MaterialProps, Settings, ShaftCheck
+from workbench.core.drive import drive_loads
+from workbench.core.evaluate import ShaftCase, evaluate
+from workbench.core.fatigue import CRITERIA
+from workbench.core.loads import Mount
+from workbench.core.tables import material, material_for_size, materials, mount_factors
+from workbench.specs import parse_spec
+from workbench.units import (
+    DENSITY,
+    POWER,
+    SPEED,
+    STRESS,
+    TORQUE,
+    TWIST_RATE,
+    LENGTH,
+    QuantityError,
+    parse_fraction,
+    parse_number,
+    parse_quantity,
+)
+
+INPUT_KEYS = (
+    "power", "speed", "torque", "ratio", "efficiency", "service_factor", "peak_factor",
+    "mount", "pitch_diameter", "overhang", "shaft", "candidate", "material", "candidate_material",
+    "required_sf", "criterion", "reliability", "twist_limit",
+)
+DEFAULT_MATERIAL = "1045-cd"
+MOUNT_ALIASES = {
+    "pulley": "vbelt", "v-belt": "vbelt", "vee-belt": "vbelt", "belt": "vbelt", "chain": "sprocket",
+    "flatbelt": "flat-belt", "flat belt": "flat-belt", "timing": "timing-belt", "toothed-belt": "timing-belt",
+    "pinion": "gear", "none": "coupling", "direct": "coupling",
+}
+
+
+class JobInputError(ValueError):
+    """Something a person typed cannot be used. ``field`` is the input key; ``str()`` is one line."""
+
+    def __init__(self, field: str, message: str) -> None:
+        super().__init__(f"{field}: {message}")
+        self.field = field
+        self.message = message
+
+
+def _given(inputs: Mapping[str, str], key: str) -> str:
+    value = inputs.get(key)
+    return "" if value is None else str(value).strip()
+
+
+def _fraction(inputs, key, default, low, high) -> float:
+    text = _given(inputs, key)
+    return default if not text else parse_fraction(key, text, low=low, high=high)
+
+
+def _number(inputs, key, default, low, high) -> float:
+    text = _given(inputs, key)
+    if not text:
+        return default
+    value = parse_number(key, text)
+    if not low <= value <= high:
+        raise QuantityError(key, f"{text!r} is out of range; expected {low:g} to {high:g}")
+    return value
+
+
+def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
+    """A material from the table by key (``1045-cd``; ``c45-qt`` picks the row for the bar size)
+    or typed in: ``custom Sy=350MPa Sut=600MPa [E=207GPa G=79.3GPa rho=7850]``."""
+    text = text.strip()
+    if text.lower().startswith("custom"):
+        return _custom_material(field, text)
+    try:
+        key = text.lower()
+        row = material(key) if key in materials() else material_for_size(key, size_m)
+    except KeyError as err:
+        raise QuantityError(field, str(err).strip("'\"")) from None
+    return MaterialProps(row.key, row.name, row.tensile_Pa, row.yield_Pa, row.G_Pa, row.density_kg_m3)
+
+
+def _custom_material(field: str, text: str) -> MaterialProps:
+    values = {}
+    for part in text.split()[1:]:
+        name, sep, value = part.partition("=")
+        if not sep:
+            raise QuantityError(field, f"custom material needs NAME=VALUE pairs, not {part!r}")
+        values[name.strip().lower()] = value
+    need = {"sy", "sut"}
+    if not need <= values.keys():
+        raise QuantityError(field, "custom material needs at least Sy=... and Sut=... (e.g. custom Sy=350MPa Sut=600MPa)")
+    sy = parse_quantity(field, values.pop("sy"), STRESS, "MPa", low=20e6, high=3000e6)
+    sut = parse_quantity(field, values.pop("sut"), STRESS, "MPa", low=20e6, high=3000e6)
+    if sy > sut:
+        raise QuantityError(field, "custom material: Sy must not exceed Sut")
+    g = parse_quantity(field, values.pop("g", "79.3 GPa"), STRESS, "GPa", low=10e9, high=200e9)
+    rho = parse_quantity(field, values.pop("rho", "7850"), DENSITY, "kg/m^3", low=1000.0, high=20000.0)
+    values.pop("e", None)
+    if values:
+        raise QuantityError(field, f"custom material: unknown {', '.join(values)} (use Sy, Sut, G, E, rho)")
+    return MaterialProps("custom", f"custom (Sy {sy / 1e6:g} MPa, Sut {sut / 1e6:g} MPa)", sut, sy, g, rho)
+
+
+def _mount(inputs: Mapping[str, str]) -> Mount:
+    element = _given(inputs, "mount").lower() or "coupling"
+    element = MOUNT_ALIASES.get(element, element)
+    factors = mount_factors()
+    if element not in factors:
+        raise QuantityError("mount", f"unknown element {element!r}; expected one of {', '.join(factors)}")
+    factor = factors[element].load_factor
+    if factor == 0.0:
+        return Mount(element, 0.0, 0.0, 0.0)
+    pd_text, oh_text = _given(inputs, "pitch_diameter"), _given(inputs, "overhang")
+    if not pd_text:
+        raise QuantityError("pitch_diameter", f"is needed for a {element} (e.g. 200 mm)")
+    if not oh_text:
+        raise QuantityError("overhang", f"is needed for a {element}: bearing to load line (e.g. 60 mm)")
+    pitch = parse_quantity("pitch_diameter", pd_text, LENGTH, "mm", low=5e-3, high=3.0)
+    overhang = parse_quantity("overhang", oh_text, LENGTH, "mm", high=2.0, allow_zero=True)
+    return Mount(element, factor, pitch, overhang)
+
+
+def _drive(inputs: Mapping[str, str]):
+    torque_text = _given(inputs, "torque")
+    power_text, speed_text = _given(inputs, "power"), _given(inputs, "speed")
+    ratio = _number(inputs, "ratio", 1.0, 0.02, 500.0)
+    efficiency = _fraction(inputs, "efficiency", 1.0, 0.3, 1.0)
+    service = _number(inputs, "service_factor", 1.0, 0.5, 5.0)
+    peak = _number(inputs, "peak_factor", 2.0, 1.0, 6.0)
+    speed = parse_quantity("speed", speed_text, SPEED, "rpm", low=1.0, high=30000.0) if speed_text else None
+    if torque_text:
+        if power_text:
+            raise QuantityError("torque", "give either a torque or power and speed, not both")
+        torque = parse_quantity("torque", torque_text, TORQUE, "N*m", low=0.01, high=1e6)
+        return drive_loads(torque_Nm=torque, motor_speed_rpm=speed, ratio=ratio, efficiency=efficiency,
+                           service_factor=service, peak_factor=peak)
+    if not power_text:
+        raise QuantityError("power", "is needed (e.g. 7.5 kW or 10 hp), or give a torque instead")
+    power = parse_quantity("power", power_text, POWER, "kW", low=1.0, high=5e6)
+    if speed is None:
+        raise QuantityError("speed", "is needed with a power (e.g. 1450 rpm)")
+    return drive_loads(power_W=power, motor_speed_rpm=speed, ratio=ratio, efficiency=efficiency,
+                       service_factor=service, peak_factor=peak)
+
+
+def _settings(inputs: Mapping[str, str]) -> Settings:
+    criterion = (_given(inputs, "criterion") or "goodman").lower()
+    if criterion not in CRITERIA:
+        raise QuantityError("criterion", f"unknown {criterion!r}; expected one of {', '.join(CRITERIA)}")
+    twist_text = _given(inputs, "twist_limit")
+    twist = parse_quantity("twist_limit", twist_text, TWIST_RATE, "deg/m", low=0.01, high=50.0) if twist_text else None
+    return Settings(
+        required_sf=_number(inputs, "required_sf", 1.5, 1.0, 10.0),
+        criterion=criterion,
+        reliability=_fraction(inputs, "reliability", 0.90, 0.5, 0.9999),
+        twist_limit_deg_per_m=twist,
+    )
+
+
+def parse_cases(inputs: Mapping[str, str]) -> list[ShaftCase]:
+    """The shafts of a job (existing first), with their materials; raises QuantityError."""
+    cases = []
+    mat_text = _given(inputs, "material") or DEFAULT_MATERIAL
+    for role, key in (("existing", "shaft"), ("candidate", "candidate")):
+        spec = _given(inputs, key)
+        if not spec:
+            continue
+        geometry = parse_spec(spec, key)
+        text = (_given(inputs, "candidate_material") or mat_text) if role == "candidate" else mat_text
+        field = "candidate_material" if role == "candidate" and _given(inputs, "candidate_material") else "material"
+        cases.append(ShaftCase(role, geometry, parse_material(field, text, geometry.size_m)))
+    if not cases:
+        raise QuantityError("shaft", "give the shaft as found and/or a candidate (e.g. round 35mm)")
+    return cases
+
+
+def evaluate_inputs(inputs: Mapping[str, str]) -> dict:
+    """Evaluate a job typed as strings; return the JSON-ready result dict (see DEVELOPERS.md).
+
+    Raises JobInputError naming the field for anything that cannot be used.
+    """
+    unknown = [k for k in inputs if k not in INPUT_KEYS]
+    if unknown:
+        raise JobInputError(unknown[0], f"is not a job input (known: {', '.join(INPUT_KEYS)})")
+    try:
+        loads = _drive(inputs)
+        mount = _mount(inputs)
+        settings = _settings(inputs)
+        cases = parse_cases(inputs)
+    except QuantityError as err:
+        raise JobInputError(err.field, err.message) from None
+    checks, comparison = evaluate(loads, mount, cases, settings)
+    shafts = [_shaft_dict(case, check, inputs) for case, check in zip(cases, checks)]
+    result = {
+        "program": {"name": "shaftbench", "version": __version__},
+        "inputs": {k: str(v) for k, v in inputs.items()},
+        "drive": {
+            "power_W": loads.power_W,
+            "motor_speed_rpm": loads.motor_speed_rpm,
+            "shaft_speed_rpm": loads.shaft_speed_rpm,
+            "ratio": loads.ratio,
+            "efficiency": loads.efficiency,
+            "service_factor": loads.service_factor,
+            "peak_factor": loads.peak_factor,
+            "running_torque_Nm": loads.running_torque_Nm,
+            "design_torque_Nm": loads.design_torque_Nm,
+            "peak_torque_Nm": loads.peak_torque_Nm,
+        },
+        "mount": {
+            "element": mount.element,
+            "load_factor": mount.load_factor,
+            "pitch_diameter_m": mount.pitch_diameter_m,
+            "overhang_m": mount.overhang_m,
+            "side_load_N": checks[0].side_load_N,
+            "bending_moment_Nm": checks[0].bending_moment_Nm,
+            "source": mount_factors()[mount.element].source,
+        },
+        "settings": {
+            "required_sf": settings.required_sf,
+            "fatigue_criterion": CRITERIA[settings.criterion],
+            "reliability": settings.reliability,
+            "twist_limit_deg_per_m": settings.twist_limit_deg_per_m,
+        },
+        "shafts": shafts,
+        "comparison": None if comparison is None else {
+            "strength_ratio": _finite(comparison.strength_ratio),
+            "stiffness_ratio": comparison.stiffness_ratio,
+            "mass_ratio": comparison.mass_ratio,
+        },
+        "verdict": shafts[-1]["verdict"],
+        "cautions": list(CAUTIONS),
+    }
+    return result
+
+
+def _finite(value: float) -> float | None:
+    """JSON has no infinity: an unlimited safety factor (no load of that kind) is written as null."""
+    return value if math.isfinite(value) else None
+
+
+def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -> dict:
+    g = case.geometry
+    section = check.section
+    dims = {"size_m": g.size_m}
+    if g.second_m:
+        dims["second_m"] = g.second_m
+    if section.key_width_m:
+        dims["key_width_m"] = section.key_width_m
+        dims["key_depth_m"] = section.key_depth_m
+    return {
+        "role": case.role,
+        "spec": _given(inputs, "shaft" if case.role == "existing" else "candidate"),
+        "profile": g.profile,
+        "dimensions_m": dims,
+        "keyed": g.keyed,
+        "finish": g.finish,
+        "shoulder": g.shoulder,
+        "material": case.material.key,
+        "material_name": case.material.name,
+        "tensile_Pa": case.material.tensile_Pa,
+        "yield_Pa": case.material.yield_Pa,
+        "area_m2": section.area_m2,
+        "torsion_constant_m4": section.torsion_constant_m4,
+        "shear_per_torque_Pa_per_Nm": section.shear_per_torque_Pa_per_Nm,
+        "section_modulus_m3": section.section_modulus_m3,
+        "max_shear_stress_Pa": check.max_shear_stress_Pa,
+        "bending_moment_Nm": check.bending_moment_Nm,
+        "bending_stress_Pa": check.bending_stress_Pa,
+        "von_mises_stress_Pa": check.von_mises_stress_Pa,
+        "tresca_stress_Pa": check.tresca_stress_Pa,
+        "twist_deg_per_m": check.twist_deg_per_m,
+        "twist_limit_deg_per_m": check.twist_limit_deg_per_m,
+        "mass_kg_per_m": check.mass_kg_per_m,
+        "endurance_limit_Pa": check.endurance_limit_Pa,
+        "marin": check.marin,
+        "feature": check.feature,
+        "Kt": check.Kt,
+        "Kts": check.Kts,
+        "Kf": check.Kf,
+        "Kfs": check.Kfs,
+        "fatigue_criterion": check.fatigue_criterion,
+        "static_safety_factor": _finite(check.static_safety_factor),
+        "shear_yield_safety_factor": _finite(check.shear_yield_safety_factor),
+        "fatigue_safety_factor": _finite(check.fatigue_safety_factor),
+        "verdict": check.verdict,
+        "governing": check.governing,
+        "why": check.why,
+        "methods": check.methods,
+        "notes": _material_notes(case),
+    }
+
+
+def _material_notes(case: ShaftCase) -> list[str]:
+    """Cautions about the material row: strengths that hold for another bar size."""
+    row = materials().get(case.material.key)
+    if row is None or row.covers(case.geometry.size_m):
+        return []
+    low = 0 if row.size_min_m is None else row.size_min_m * 1000
+    high = "any" if row.size_max_m is None else f"{row.size_max_m * 1000:g}"
+    return [
+        f"{row.name}: the tabled strengths hold for {low:g}-{high} mm bar; this bar is "
+        f"{case.geometry.size_m * 1000:g} mm — larger bar is usually weaker, confirm with the mill certificate."
+    ]
+
+
+def substitute_inputs(inputs: Mapping[str, str]) -> dict:
+    """Equivalent square, flat, hex, tube and round sizes for the shaft as found (``inputs['shaft']``).
+
+    Needs only ``shaft`` (and optionally ``candidate`` for its journal fact); returns
+    ``{"existing": {...}, "equivalents": [...], "fit_facts": [...], "cautions": [...]}``.
+    """
+    from workbench.core.substitution import equivalents, fit_facts
+    from workbench.specs import format_spec
+
+    try:
+        spec = _given(inputs, "shaft")
+        if not spec:
+            raise QuantityError("shaft", "give the shaft as found (e.g. round 35mm)")
+        existing = parse_spec(spec, "shaft")
+        candidate = parse_spec(_given(inputs, "candidate"), "candidate") if _given(inputs, "candidate") else None
+    except QuantityError as err:
+        raise JobInputError(err.field, err.message) from None
+    system = "inch" if existing.key_standard == "ansi" else "metric"
+    rows = []
+    for eq in equivalents(existing):
+        stock = _next_stock(eq.geometry, system)
+        rows.append({
+            "profile": eq.geometry.profile,
+            "basis": eq.basis,
+            "size_m": eq.geometry.size_m,
+            "second_m": eq.geometry.second_m,
+            "label": format_spec(eq.geometry, system),
+            "strength_ratio": eq.strength_ratio,
+            "stiffness_ratio": eq.stiffness_ratio,
+            "mass_ratio": eq.mass_ratio,
+            "next_stock": None if stock is None else format_spec(stock, system),
+        })
+    return {
+        "existing": {"spec": spec, "profile": existing.profile, "size_m": existing.size_m},
+        "equivalents": rows,
+        "fit_facts": fit_facts(existing, candidate),
+        "cautions": list(CAUTIONS),
+    }
+
+
+def _next_stock(geometry, system: str):
+    """The smallest stock bar of the same profile at least as large in every dimension (or None)."""
+    from workbench.core.stock import stock_geometry
+    from workbench.core.tables import stock_sizes
+
+    for stock in stock_sizes(geometry.profile, system):
+        if stock.size_m >= geometry.size_m - 1e-9 and (
+            geometry.profile not in ("flat",) or stock.second_m >= geometry.second_m - 1e-9
+        ) and (geometry.profile != "tube" or stock.second_m <= geometry.second_m + 1e-9):
+            return stock_geometry(stock)
+    return None
+
+
+_STOCK_PROBE_SIZE_M = 0.03
+
+
+def _material_for_size(key: str):
+    def material_at(size_m: float) -> MaterialProps:
+        try:
+            return parse_material("material", key, size_m)
+        except QuantityError:  # a size-ranged grade with no row for this size: use the nearest row
+            return parse_material("material", key, _STOCK_PROBE_SIZE_M)
+
+    return material_at
+
+
+def stock_inputs(inputs: Mapping[str, str], profile: str, system: str = "metric", materials_keys=None) -> dict:
+    """Check every stock size of ``profile`` in ``system`` as the candidate, in each material.
+
+    Rounds and tubes carry a keyseat when the shaft as found is keyed. Returns
+    ``{"profile", "system", "rows": [...], "smallest": {material: row}, "cautions"}``; each row has
+    ``spec`` and ``material`` ready to be taken as the job's candidate.
+    """
+    from workbench.core.stock import check_stock, smallest_passing
+    from workbench.core.tables import STOCK_PROFILES, STOCK_SYSTEMS
+    from workbench.specs import format_spec
+
+    if profile not in STOCK_PROFILES:
+        raise JobInputError("profile", f"unknown {profile!r}; expected one of {', '.join(STOCK_PROFILES)}")
+    if system not in STOCK_SYSTEMS:
+        raise JobInputError("system", f"unknown {system!r}; expected metric or inch")
+    try:
+        loads = _drive(inputs)
+        mount = _mount(inputs)
+        settings = _settings(inputs)
+        shaft_text = _given(inputs, "shaft")
+        existing = parse_spec(shaft_text, "shaft") if shaft_text else None
+        keys = list(materials_keys or [_given(inputs, "candidate_material") or _given(inputs, "material") or DEFAULT_MATERIAL])
+        for key in keys:  # fail early, naming the field, on an unknown material
+            parse_material("material", key, _STOCK_PROBE_SIZE_M)
+        mats = [_material_for_size(key) for key in keys]
+    except QuantityError as err:
+        raise JobInputError(err.field, err.message) from None
+    keyed = bool(existing and existing.keyed)
+    rows = check_stock(profile, system, mats, loads, mount, settings, keyed=keyed)
+    out_rows = []
+    for row in rows:
+        check = row.check
+        out_rows.append({
+            "label": row.stock.label + (" mm" if system == "metric" else " in"),
+            "spec": format_spec(row.geometry, system),
+            "size_m": row.geometry.size_m,
+            "second_m": row.geometry.second_m,
+            "material": row.material.key,
+            "verdict": check.verdict,
+            "governing": check.governing,
+            "why": check.why,
+            "min_safety_factor": _finite(check.min_safety_factor),
+            "static_safety_factor": _finite(check.static_safety_factor),
+            "fatigue_safety_factor": _finite(check.fatigue_safety_factor),
+            "twist_deg_per_m": check.twist_deg_per_m,
+            "mass_kg_per_m": check.mass_kg_per_m,
+        })
+    smallest = {}
+    for key, row in smallest_passing(rows).items():
+        smallest[key] = out_rows[rows.index(row)]
+    return {"profile": profile, "system": system, "rows": out_rows, "smallest": smallest, "cautions": list(CAUTIONS)}

@@ -1,0 +1,138 @@
+"""Rich renderings of a check, a substitution and a stock search, for the terminal report."""
+
+from __future__ import annotations
+
+from rich.console import Group
+from rich.panel import Panel
+from rich.table import Table
+from rich.text import Text
+
+from workbench.tui import display as fmt
+
+VERDICT_STYLE = {"pass": "bold green", "marginal": "bold yellow", "fail": "bold red"}
+
+
+def verdict_text(word: str) -> Text:
+    """The verdict as word + symbol (readable without colour)."""
+    return Text(fmt.verdict(word), style=VERDICT_STYLE.get(word, "bold"))
+
+
+def _drive_table(result: dict, system: str) -> Table:
+    drive, mount = result["drive"], result["mount"]
+    table = Table.grid(padding=(0, 2))
+    table.add_column(style="dim")
+    table.add_column()
+    table.add_column(style="dim")
+    table.add_column()
+    power = "—" if drive["power_W"] is None else (
+        f"{fmt.number(drive['power_W'] / 745.69987)} hp" if system == "inch" else f"{fmt.number(drive['power_W'] / 1000)} kW"
+    )
+    motor = "—" if drive["motor_speed_rpm"] is None else f"{fmt.number(drive['motor_speed_rpm'])} rpm"
+    shaft = "—" if drive["shaft_speed_rpm"] is None else f"{fmt.number(drive['shaft_speed_rpm'])} rpm"
+    table.add_row("power", power, "running torque", fmt.torque(drive["running_torque_Nm"], system))
+    table.add_row("motor speed", motor, f"design torque (x{drive['service_factor']:g} service)",
+                  fmt.torque(drive["design_torque_Nm"], system))
+    table.add_row("ratio / efficiency", f"{drive['ratio']:g} / {drive['efficiency']:.0%}",
+                  f"peak torque (x{drive['peak_factor']:g} start)", fmt.torque(drive["peak_torque_Nm"], system))
+    table.add_row("shaft speed", shaft, "mounted", _mount_text(mount, system))
+    if mount["side_load_N"]:
+        table.add_row("side load (design)", fmt.force(mount["side_load_N"], system),
+                      "bending moment", fmt.torque(mount["bending_moment_Nm"], system))
+    return table
+
+
+def _mount_text(mount: dict, system: str) -> str:
+    if not mount["load_factor"]:
+        return f"{mount['element']} (torque only)"
+    return (f"{mount['element']} K={mount['load_factor']:g}, "
+            f"{fmt.length(mount['pitch_diameter_m'], system)} pitch, {fmt.length(mount['overhang_m'], system)} overhang")
+
+
+ROWS = (
+    ("material", lambda s, u: s["material_name"]),
+    ("max shear (design)", lambda s, u: fmt.stress(s["max_shear_stress_Pa"], u)),
+    ("bending stress", lambda s, u: fmt.stress(s["bending_stress_Pa"], u)),
+    ("von Mises / Tresca", lambda s, u: f"{fmt.stress(s['von_mises_stress_Pa'], u)} / {fmt.stress(s['tresca_stress_Pa'], u)}"),
+    ("endurance limit Se", lambda s, u: fmt.stress(s["endurance_limit_Pa"], u)),
+    ("Kf / Kfs", lambda s, u: f"{s['Kf']:.2f} / {s['Kfs']:.2f} ({s['feature']})"),
+    ("static SF (peak)", lambda s, u: fmt.factor(s["static_safety_factor"])),
+    ("fatigue SF", lambda s, u: f"{fmt.factor(s['fatigue_safety_factor'])} {s['fatigue_criterion']}"),
+    ("twist", lambda s, u: f"{fmt.twist(s['twist_deg_per_m'], u)} (limit {fmt.twist(s['twist_limit_deg_per_m'], u)})"),
+    ("mass", lambda s, u: fmt.mass_per_length(s["mass_kg_per_m"], u)),
+)
+
+
+def _shafts_table(result: dict, system: str) -> Table:
+    table = Table(show_edge=False, expand=False, pad_edge=False)
+    table.add_column("", style="dim", no_wrap=True)
+    for shaft in result["shafts"]:
+        table.add_column(Text(f"{shaft['role']}: {shaft['spec']}"), overflow="fold")
+    for label, getter in ROWS:
+        table.add_row(label, *(Text(getter(shaft, system)) for shaft in result["shafts"]))
+    table.add_row("verdict", *(verdict_text(shaft["verdict"]) for shaft in result["shafts"]))
+    table.add_row("why", *(Text(shaft["why"]) for shaft in result["shafts"]))
+    return table
+
+
+def cautions_panel(cautions: list[str]) -> Panel:
+    """The safety cautions, always shown."""
+    body = Text("\n".join(f"! {line}" for line in cautions))
+    return Panel(body, title="Safety", title_align="left", border_style="yellow")
+
+
+def render_check(result: dict, system: str = "metric") -> Group:
+    """The full report of one job as a Rich renderable."""
+    parts = [
+        Panel(_drive_table(result, system), title="Drive", title_align="left"),
+        Panel(_shafts_table(result, system), title="Shafts", title_align="left"),
+    ]
+    comparison = result.get("comparison")
+    summary = Text("Verdict: ")
+    summary.append_text(verdict_text(result["verdict"]))
+    if comparison:
+        strength = comparison["strength_ratio"]
+        summary.append(
+            f"   candidate / existing: strength {'—' if strength is None else f'{strength:.2f}'}x, "
+            f"stiffness {comparison['stiffness_ratio']:.2f}x, mass {comparison['mass_ratio']:.2f}x"
+        )
+    parts.append(summary)
+    for shaft in result["shafts"]:
+        for note in shaft.get("notes", []):
+            parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
+    parts.append(cautions_panel(result["cautions"]))
+    return Group(*parts)
+
+
+def render_substitution(result: dict, system: str = "metric") -> Group:
+    """Equivalent bars for the shaft as found, with their ratios and the fit facts."""
+    table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material)"))
+    for name in ("profile", "basis", "size", "strength", "stiffness", "mass", "next stock up"):
+        table.add_column(name)
+    for row in result["equivalents"]:
+        table.add_row(
+            row["profile"], row["basis"], Text(row["label"]),
+            f"{row['strength_ratio']:.2f}", f"{row['stiffness_ratio']:.2f}", f"{row['mass_ratio']:.2f}",
+            Text(row.get("next_stock") or "—"),
+        )
+    facts = Text("\n".join(f"- {fact}" for fact in result["fit_facts"]))
+    return Group(table, Panel(facts, title="Fit facts", title_align="left"), cautions_panel(result["cautions"]))
+
+
+def render_stock(result: dict, system: str = "metric") -> Group:
+    """Stock sizes checked as the candidate, smallest first, with the smallest that passes."""
+    table = Table(title=Text(f"{result['profile']} stock, {result['system']}"))
+    for name in ("size", "material", "verdict", "lowest SF", "governing", "mass"):
+        table.add_column(name)
+    for row in result["rows"]:
+        table.add_row(
+            Text(row["label"]), row["material"], verdict_text(row["verdict"]),
+            fmt.factor(row["min_safety_factor"]), row["governing"], fmt.mass_per_length(row["mass_kg_per_m"], system),
+        )
+    lines = Text()
+    for key, best in result["smallest"].items():
+        lines.append(f"smallest that passes in {key}: ")
+        lines.append(best["spec"], style="bold")
+        lines.append("\n")
+    if not result["smallest"]:
+        lines.append("no stock size of this profile passes", style="bold red")
+    return Group(table, lines, cautions_panel(result["cautions"]))

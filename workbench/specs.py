@@ -1,0 +1,138 @@
+"""Shaft specs: one short string per shaft, read into a core ShaftGeometry.
+
+Syntax (ours):  PROFILE SIZE [WORD ...]
+
+    round 35mm            tube 60mm/50mm        square 30mm
+    flat 50mm x 20mm      hex 27mm              round 1-1/4in keyed ground
+    round 40mm keyed sharp-shoulder             round 1 1/4" key 1/4x1/8in
+
+SIZE: round = diameter; tube = outside/inside diameter; square = side; flat = width x thickness;
+hex = across flats. A bare number is millimetres; inch sizes accept 1.25in, 1-1/4in, 1 1/4".
+WORDS: ``keyed`` (standard keyseat for the diameter: DIN 6885-1 for metric sizes, ANSI B17.1 for
+inch sizes), ``key WxD`` (explicit keyseat width x depth), a finish (ground, machined, cold-drawn,
+hot-rolled, forged), a shoulder (sharp-shoulder, round-shoulder).
+"""
+
+from __future__ import annotations
+
+import re
+
+from workbench.core.geometry import FINISHES, PROFILES, ShaftGeometry
+from workbench.units import LENGTH, QuantityError, parse_quantity
+
+MIN_SIZE_M = 2e-3
+MAX_SIZE_M = 0.5  # a bench tool for motor-drive shafts: anything wider is a typing slip
+
+_SHOULDERS = {"sharp-shoulder": "sharp", "round-shoulder": "rounded", "shoulder": "sharp"}
+_INCH = re.compile(r"(in\b|inch|\"|″|'')", re.I)
+_TUBE_SPLIT = re.compile(r"(?<=[A-Za-z\"″'])\s*/\s*")
+_TIMES = re.compile(r"\s*[x×*]\s*", re.I)
+_WORDS = ("keyed", "key", *FINISHES, *_SHOULDERS)
+_WORD_RE = re.compile(r"\s(" + "|".join(re.escape(w) for w in sorted(_WORDS, key=len, reverse=True)) + r")(?=\s|$)", re.I)
+
+SPEC_HELP = "e.g. 'round 35mm', 'tube 60mm/50mm', 'square 30mm', 'flat 50mm x 20mm', 'hex 27mm', 'round 1-1/4in keyed'"
+
+
+def parse_length(field: str, text: str, *, default_unit: str = "mm") -> float:
+    """A shaft dimension in metres, within 2 mm .. 500 mm."""
+    return parse_quantity(field, text, LENGTH, default_unit, low=MIN_SIZE_M, high=MAX_SIZE_M)
+
+
+def _split_pair(field: str, text: str, splitter: re.Pattern, what: str) -> tuple[str, str]:
+    parts = splitter.split(text.strip(), maxsplit=1)
+    if len(parts) != 2 or not parts[0] or not parts[1]:
+        raise QuantityError(field, f"needs {what}, {SPEC_HELP}")
+    first, second = parts
+    # a unit written only once ("50 x 20 mm") applies to both
+    if re.fullmatch(r"[\d.\s/-]+", first.strip()):
+        unit = re.sub(r"^[\d.\s/-]+", "", second.strip())
+        first = f"{first.strip()} {unit}"
+    return first, second
+
+
+def parse_spec(text: str, field: str = "shaft") -> ShaftGeometry:
+    """Read a shaft spec string; raises QuantityError naming ``field`` with what it expects."""
+    raw = " ".join(str(text).split())
+    if not raw:
+        raise QuantityError(field, f"is empty; {SPEC_HELP}")
+    profile, _, rest = raw.partition(" ")
+    profile = profile.lower()
+    if profile not in PROFILES:
+        raise QuantityError(field, f"unknown profile {profile!r}; expected one of {', '.join(PROFILES)} ({SPEC_HELP})")
+    match = _WORD_RE.search(" " + rest)
+    size_text = (" " + rest)[: match.start()].strip() if match else rest.strip()
+    words = (" " + rest)[match.start():].split() if match else []
+    if not size_text:
+        raise QuantityError(field, f"has no size; {SPEC_HELP}")
+    inch = bool(_INCH.search(size_text))
+    unit = "in" if inch else "mm"
+    second = 0.0
+    if profile == "tube":
+        simple = re.fullmatch(r"\s*(\d+(?:\.\d+)?)\s*/\s*(\d+(?:\.\d+)?)\s*([A-Za-z\"]*)\s*", size_text)
+        if simple and not _TUBE_SPLIT.search(size_text):
+            outside_text = f"{simple[1]} {simple[3]}"
+            inside_text = f"{simple[2]} {simple[3]}"
+        else:
+            outside_text, inside_text = _split_pair(field, size_text, _TUBE_SPLIT, "outside/inside diameters")
+        size = parse_length(field, outside_text, default_unit=unit)
+        second = parse_length(field, inside_text, default_unit=unit)
+        if second >= size:
+            raise QuantityError(field, "tube inside diameter must be smaller than its outside diameter")
+    elif profile == "flat":
+        width_text, thick_text = _split_pair(field, size_text, _TIMES, "width x thickness")
+        size = parse_length(field, width_text, default_unit=unit)
+        second = parse_length(field, thick_text, default_unit=unit)
+        size, second = max(size, second), min(size, second)
+    else:
+        size = parse_length(field, size_text, default_unit=unit)
+    options: dict = {}
+    i = 0
+    while i < len(words):
+        word = words[i].lower()
+        if word == "keyed":
+            options["keyed"] = True
+        elif word == "key":
+            if i + 1 >= len(words):
+                raise QuantityError(field, "'key' needs width x depth, e.g. 'key 10x5mm'")
+            key_text = words[i + 1]
+            i += 1
+            width_text, depth_text = _split_pair(field, key_text, _TIMES, "key width x depth")
+            options["keyed"] = True
+            options["key_width_m"] = parse_quantity(field, width_text, LENGTH, unit, high=size)
+            options["key_depth_m"] = parse_quantity(field, depth_text, LENGTH, unit, high=size / 2)
+        elif word in FINISHES:
+            options["finish"] = word
+        elif word in _SHOULDERS:
+            options["shoulder"] = _SHOULDERS[word]
+        else:
+            raise QuantityError(field, f"unknown word {words[i]!r}; expected keyed, key WxD, a finish or a shoulder")
+        i += 1
+    if options.get("keyed") and profile not in ("round", "tube"):
+        raise QuantityError(field, f"a keyseat is only checked on round shafts, not {profile}")
+    return ShaftGeometry(profile=profile, size_m=size, second_m=second, key_standard="ansi" if inch else "iso", **options)
+
+
+def format_spec(geometry: ShaftGeometry, system: str = "metric") -> str:
+    """A spec string that parses back to ``geometry`` (sizes in mm or inch)."""
+    def size(value_m: float) -> str:
+        if system == "inch":
+            return f"{value_m / 0.0254:.4g}in"
+        return f"{value_m * 1000:.4g}mm"
+
+    g = geometry
+    if g.profile == "tube":
+        text = f"tube {size(g.size_m)}/{size(g.second_m)}"
+    elif g.profile == "flat":
+        text = f"flat {size(g.size_m)} x {size(g.second_m)}"
+    else:
+        text = f"{g.profile} {size(g.size_m)}"
+    if g.keyed:
+        if g.key_width_m and g.key_depth_m:
+            text += f" key {size(g.key_width_m)}x{size(g.key_depth_m)}"
+        else:
+            text += " keyed"
+    if g.finish != "machined":
+        text += f" {g.finish}"
+    if g.shoulder != "none":
+        text += " sharp-shoulder" if g.shoulder == "sharp" else " round-shoulder"
+    return text
