@@ -62,8 +62,8 @@ def size_factor(diameter_m: float) -> float:
     if d_mm < 2.79:
         return 1.0
     if d_mm <= 51.0:
-        return 1.24 * d_mm**-0.107
-    return 1.51 * min(d_mm, 254.0) ** -0.157
+        return (d_mm / 7.62) ** -0.107
+    return 1.51 * min(d_mm, 254.0) ** -0.157  # (d/7.62)^-0.107 form is the exact one below 51 mm
 
 
 def reliability_factor(reliability: float) -> float:
