@@ -1,0 +1,228 @@
+"""The review screen, driven by Textual's Pilot in a tiny host app."""
+
+from __future__ import annotations
+
+import asyncio
+import functools
+import io
+from pathlib import Path
+from typing import Any
+
+import pytest
+from rich.text import Text
+from store_helpers import JOB_INPUTS, result_for
+from textual.app import App
+from textual.widgets import DataTable, Input, Select, Static
+
+from workbench.store import JobLog
+from workbench.tui.screens.review import ConfirmScreen, ReviewScreen
+
+SIZE = (160, 48)
+
+
+def run_async(test):
+    """Run an async test body on a fresh event loop (no asyncio plugin needed)."""
+
+    @functools.wraps(test)
+    def runner(*args: Any, **kwargs: Any) -> None:
+        asyncio.run(test(*args, **kwargs))
+
+    return runner
+
+
+class Host(App[None]):
+    """Pushes the review screen and keeps what it dismissed with."""
+
+    def __init__(self, log_path: Path, **screen_options: Any) -> None:
+        super().__init__()
+        self.log_path = log_path
+        self.screen_options = screen_options
+        self.outcomes: list[Any] = []
+
+    def on_mount(self) -> None:
+        self.push_screen(ReviewScreen(self.log_path, **self.screen_options), self.outcomes.append)
+
+
+def _fill(path: Path, count: int = 3, **overrides: str) -> list[int]:
+    names = ("demo", "mixer", "overloaded")
+    with JobLog.open(path) as log:
+        return [
+            log.save(dict(JOB_INPUTS[names[i % 3]]), result_for(names[i % 3]),
+                     asset=overrides.get("asset", f"Asset {i}"), location=f"Bay {i}",
+                     note=overrides.get("note", ""))
+            for i in range(count)
+        ]
+
+
+async def _settle(pilot, screen: ReviewScreen, loads: int) -> None:
+    for _ in range(200):
+        await pilot.pause(0.02)
+        if screen.loads >= loads and not screen.workers:
+            return
+    raise AssertionError("the review screen did not finish loading")
+
+
+def _ids(screen: ReviewScreen) -> list[int]:
+    table = screen.query_one(DataTable)
+    return [int(table.get_row_at(i)[0].plain) for i in range(table.row_count)]
+
+
+@run_async
+async def test_lists_newest_first_and_filters_as_you_type(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 5)
+    with JobLog.open(path) as log:
+        special = log.save(dict(JOB_INPUTS["demo"]), result_for("demo"), asset="Kiln fan", note="Noisy")
+    app = Host(path)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = app.screen
+        assert isinstance(screen, ReviewScreen)
+        await _settle(pilot, screen, 1)
+        assert _ids(screen) == [special, *reversed(ids)]
+        await pilot.press("slash", "k", "I", "l", "n")
+        await _settle(pilot, screen, 2)
+        assert _ids(screen) == [special]
+        screen.query_one("#review-text", Input).value = "noisy"  # notes are searched too
+        await _settle(pilot, screen, 3)
+        assert _ids(screen) == [special]
+        screen.query_one("#review-text", Input).value = ""
+        screen.query_one("#review-verdict", Select).value = "fail"
+        await _settle(pilot, screen, 5)
+        assert _ids(screen) == [ids[2]]  # the overloaded job
+        screen.query_one("#review-since", Input).value = "2999-01-01"
+        await _settle(pilot, screen, 6)
+        assert _ids(screen) == []
+        assert "match the filter" in str(screen.query_one("#review-status", Static).render())
+
+
+@run_async
+async def test_markup_in_user_text_is_shown_literally(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    _fill(path, 1, asset="[bold]P-1[/]", note="[red]x[/] [/]")
+    app = Host(path)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = app.screen
+        await _settle(pilot, screen, 1)
+        cell = screen.query_one(DataTable).get_row_at(0)[2]
+        assert isinstance(cell, Text) and cell.plain == "[bold]P-1[/]" and not cell.spans
+        detail = screen.query_one("#review-detail", Static)
+        from rich.console import Console
+
+        console = Console(width=120, record=True, file=io.StringIO())
+        console.print(detail.content)  # what the detail pane was given to show
+        shown = console.export_text()
+        assert "[bold]P-1[/]" in shown and "[red]x[/] [/]" in shown
+
+
+@run_async
+async def test_reopen_and_duplicate_dismiss_with_the_inputs(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 2)
+    for key, action in (("o", "reopen"), ("c", "duplicate"), ("enter", "reopen")):
+        app = Host(path)
+        async with app.run_test(size=SIZE) as pilot:
+            await _settle(pilot, app.screen, 1)
+            await pilot.press("down")  # the older job
+            await pilot.press(key)
+            await pilot.pause()
+        assert app.outcomes == [{"action": action, "job_id": ids[0], "inputs": JOB_INPUTS["demo"]}]
+
+
+@run_async
+async def test_escape_leaves_the_filter_then_closes_with_none(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    _fill(path, 1)
+    app = Host(path)
+    async with app.run_test(size=SIZE) as pilot:
+        await _settle(pilot, app.screen, 1)
+        await pilot.press("slash", "d")  # typing a letter bound to an action only filters
+        await _settle(pilot, app.screen, 2)
+        assert isinstance(app.focused, Input) and app.focused.value == "d"
+        await pilot.press("escape")
+        assert isinstance(app.focused, DataTable)
+        await pilot.press("escape")
+        await pilot.pause()
+    assert app.outcomes == [None]
+
+
+@run_async
+async def test_delete_asks_first_then_restore_from_the_bin(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 2)
+    app = Host(path)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = app.screen
+        await _settle(pilot, screen, 1)
+        await pilot.press("d")
+        await pilot.pause()
+        assert isinstance(app.screen, ConfirmScreen)
+        await pilot.press("n")  # no: nothing happens
+        await pilot.pause()
+        with JobLog.open(path) as log:
+            assert log.count() == 2
+        await pilot.press("d")
+        await pilot.pause()
+        await pilot.press("y")
+        await _settle(pilot, screen, 2)
+        assert _ids(screen) == [ids[0]]
+        await pilot.press("b")  # the bin
+        await _settle(pilot, screen, 3)
+        assert _ids(screen) == [ids[1]]
+        await pilot.press("r")
+        await _settle(pilot, screen, 4)
+        assert _ids(screen) == []
+    with JobLog.open(path) as log:
+        assert log.count() == 2 and log.count(deleted=True) == 0
+
+
+@run_async
+async def test_pages_never_hold_more_than_a_page(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 25)
+    app = Host(path, page_size=10)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = app.screen
+        await _settle(pilot, screen, 1)
+        assert _ids(screen) == list(reversed(ids))[:10]
+        await pilot.press("n")
+        await _settle(pilot, screen, 2)
+        await pilot.press("n")
+        await _settle(pilot, screen, 3)
+        assert _ids(screen) == list(reversed(ids))[20:]
+        assert "21-25 of 25" in str(screen.query_one("#review-status", Static).render())
+        await pilot.press("n")  # no page after the last
+        await pilot.press("p")
+        await _settle(pilot, screen, 4)
+        assert _ids(screen) == list(reversed(ids))[10:20]
+
+
+@pytest.mark.parametrize("suffix, marker", [(".html", "<html"), (".svg", "<svg"), (".txt", "Shaftbench job card")])
+@run_async
+async def test_card_export_writes_the_chosen_format(tmp_path, suffix, marker):
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 1, asset="CV-07 <head> & drive")
+    app = Host(path, card_dir=tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        await _settle(pilot, app.screen, 1)
+        await pilot.press("x")
+        await pilot.pause()
+        field = app.screen.query_one("#card-path", Input)
+        field.value = str(tmp_path / f"card{suffix}")
+        await pilot.press("enter")
+        for _ in range(100):
+            await pilot.pause(0.02)
+            if (tmp_path / f"card{suffix}").exists():
+                break
+    text = (tmp_path / f"card{suffix}").read_text().replace("&#160;", " ")  # SVG spaces
+    assert marker in text and f"job {ids[0]}" in text
+    assert "CV-07" in text
+
+
+@run_async
+async def test_a_missing_log_says_so_without_creating_it(tmp_path):
+    path = tmp_path / "nothing-here.sqlite3"
+    app = Host(path)
+    async with app.run_test(size=SIZE) as pilot:
+        await _settle(pilot, app.screen, 1)
+        assert "no job log" in str(app.screen.query_one("#review-status", Static).render())
+    assert not path.exists()

@@ -1,0 +1,66 @@
+"""Schema versions: a v1 log is migrated forward keeping every row, with a backup beside it."""
+
+from __future__ import annotations
+
+import json
+import sqlite3
+
+from store_helpers import JOB_INPUTS, result_for
+
+from workbench.store import JobLog, schema
+from workbench.store.migrations import migrate, user_version
+
+
+def _v1_log(path, jobs: int) -> list[tuple]:
+    """A log exactly as version 1 wrote it, with ``jobs`` rows; returns the rows."""
+    conn = sqlite3.connect(path, isolation_level=None)
+    assert migrate(conn, target=1) == 1
+    rows = []
+    for i in range(jobs):
+        name = ("demo", "mixer", "overloaded")[i % 3]
+        result = result_for(name)
+        rows.append((
+            f"2024-0{1 + i % 9}-1{i % 10}T08:00:00.000000+00:00", "2024-10-01T00:00:00.000000+00:00", "0.0.9",
+            f"Tag [{i}]", f"Site {i}", "fitter", f"note {i}", result["verdict"], "1045-cd",
+            json.dumps(JOB_INPUTS[name]), json.dumps(result),
+        ))
+    conn.executemany(
+        "INSERT INTO jobs (created_at, updated_at, program_version, asset, location, by, note, verdict,"
+        " material, inputs_json, result_json) VALUES (?,?,?,?,?,?,?,?,?,?,?)", rows)
+    conn.close()
+    return rows
+
+
+def test_a_v1_log_is_migrated_keeping_every_row(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    rows = _v1_log(path, jobs=25)
+    with JobLog.open(path) as log:
+        assert user_version(log.conn) == schema.LATEST_VERSION == 2
+        records = sorted(log.search(limit=100), key=lambda r: r.id)
+        assert len(records) == 25
+        for record, row in zip(records, rows):
+            assert (record.created_at, record.updated_at, record.program_version, record.asset,
+                    record.location, record.by, record.note, record.verdict) == row[:8]
+            assert record.inputs == json.loads(row[9]) and record.result == json.loads(row[10])
+            assert record.fitted == "" and record.deleted_at is None
+        # the new search column was filled for the old rows (case-folded)
+        assert [r.asset for r in log.search(text="tag [7]")] == ["Tag [7]"]
+        assert log.count(text="SITE") == 25 and log.count(text="fitter") == 0  # "by" is not searched
+        assert log.integrity_ok()
+    backup = tmp_path / "jobs.sqlite3.v1.bak"
+    conn = sqlite3.connect(backup)
+    assert conn.execute("PRAGMA user_version").fetchone()[0] == 1
+    assert conn.execute("SELECT count(*) FROM jobs").fetchone()[0] == 25
+    conn.close()
+
+
+def test_a_new_log_goes_straight_to_the_latest_version_and_stays_there(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    with JobLog.open(path) as log:
+        log.save(dict(JOB_INPUTS["demo"]), result_for("demo"))
+    with JobLog.open(path) as log:
+        assert user_version(log.conn) == schema.LATEST_VERSION
+        columns = [r[1] for r in log.conn.execute("PRAGMA table_info(jobs)")]
+        assert {"fitted", "deleted_at", "search_text"} <= set(columns)
+        assert log.count() == 1
+    assert not (tmp_path / "jobs.sqlite3.v1.bak").exists()

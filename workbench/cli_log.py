@@ -1,0 +1,314 @@
+"""``shaftbench log ...`` and the ``--save`` options of ``shaftbench check``.
+
+Only argparse is imported at start-up; the store, Rich and the job card load when a command runs.
+Every problem a person can cause ends as one line on stderr and exit code 2.
+"""
+
+from __future__ import annotations
+
+import argparse
+import json
+import sys
+from collections.abc import Callable
+from pathlib import Path
+from typing import Any
+
+VERDICTS = ("pass", "marginal", "fail")
+EXIT_OK, EXIT_USAGE = 0, 2
+
+
+# --------------------------------------------------------------------------------------------
+# check --save
+
+
+def add_save_options(parser: argparse.ArgumentParser) -> None:
+    """Add ``--save --asset --location --by --note --fitted --log`` to a command (``check``)."""
+    group = parser.add_argument_group("job log")
+    group.add_argument("--save", action="store_true", help="save the job in the job log")
+    group.add_argument("--asset", default="", help="asset tag of the drive, e.g. 'CV-07 head drive'")
+    group.add_argument("--location", default="", help="where the drive is")
+    group.add_argument("--by", default="", help="who checked the job")
+    group.add_argument("--note", default="", help="free notes for the log")
+    group.add_argument("--fitted", default="", help="which candidate spec was actually fitted")
+    _add_log_path(group)
+
+
+def _add_log_path(parser: Any) -> None:
+    parser.add_argument(
+        "--log", metavar="PATH", default=None,
+        help="job log file (default: $SHAFTBENCH_LOG, else jobs.sqlite3 in the user data folder)",
+    )
+
+
+def save_from_args(args: argparse.Namespace, inputs: dict[str, str], result: dict[str, Any]) -> int | None:
+    """Save the job if ``--save`` was given; returns its id, or None without ``--save``.
+
+    Raises ``workbench.store.LogError`` (one-line message) if the log cannot be written.
+    """
+    if not getattr(args, "save", False):
+        return None
+    from workbench.store import JobLog
+
+    with JobLog.open(getattr(args, "log", None)) as log:
+        return log.save(
+            inputs, result,
+            asset=getattr(args, "asset", "") or "",
+            location=getattr(args, "location", "") or "",
+            by=getattr(args, "by", "") or "",
+            note=getattr(args, "note", "") or "",
+            fitted=getattr(args, "fitted", "") or "",
+        )
+
+
+# --------------------------------------------------------------------------------------------
+# log
+
+
+def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
+    """Add ``log`` and its subcommands; each sets ``func(args) -> exit code``."""
+    log = subparsers.add_parser(
+        "log", help="list, show, export and tidy the job log",
+        description="The job log: every job saved with 'check --save' or from the workbench.",
+    )
+    log.set_defaults(func=_needs_subcommand(log))
+    sub = log.add_subparsers(dest="log_command", metavar="COMMAND")
+
+    def command(name: str, help_: str, func: Callable[[argparse.Namespace], int]) -> argparse.ArgumentParser:
+        parser = sub.add_parser(name, help=help_, description=help_)
+        _add_log_path(parser)
+        parser.set_defaults(func=_guarded(func))
+        return parser
+
+    listing = command("list", "list jobs, newest first", _cmd_list)
+    listing.add_argument("--text", default="", help="words to find in asset, location, notes or material")
+    listing.add_argument("--verdict", choices=VERDICTS, help="only jobs with this verdict")
+    listing.add_argument("--since", metavar="DATE", help="only jobs saved on or after DATE (YYYY-MM-DD, UTC)")
+    listing.add_argument("--until", metavar="DATE", help="only jobs saved on or before DATE (YYYY-MM-DD, UTC)")
+    listing.add_argument("--limit", type=int, default=50, help="at most this many jobs (default 50)")
+    listing.add_argument("--deleted", action="store_true", help="list the jobs in the bin instead")
+    listing.add_argument("--json", action="store_true", help="print JSON instead of a table")
+
+    show = command("show", "show one job and check it against today's program", _cmd_show)
+    show.add_argument("id", type=int, metavar="ID")
+    show.add_argument("--json", action="store_true", help="print the stored job as JSON")
+
+    export = command("export", "write every job (bin included) to CSV or JSON", _cmd_export)
+    export.add_argument("--format", choices=("csv", "json"), default="json")
+    export.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
+
+    imp = command("import", "add the jobs of a CSV or JSON export (jobs already there are skipped)", _cmd_import)
+    imp.add_argument("file", metavar="FILE")
+
+    card = command("card", "print or write the job card of a job", _cmd_card)
+    card.add_argument("id", type=int, metavar="ID")
+    card.add_argument("--format", choices=("html", "svg", "text"), default="text")
+    card.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
+
+    delete = command("delete", "move a job to the bin (restore brings it back)", _cmd_delete)
+    delete.add_argument("id", type=int, metavar="ID")
+    restore = command("restore", "bring a job back from the bin", _cmd_restore)
+    restore.add_argument("id", type=int, metavar="ID")
+    command("purge", "remove every job in the bin for good", _cmd_purge)
+    return log
+
+
+def _needs_subcommand(parser: argparse.ArgumentParser) -> Callable[[argparse.Namespace], int]:
+    def func(args: argparse.Namespace) -> int:
+        parser.print_usage(sys.stderr)
+        print("shaftbench log: choose a command: list, show, export, import, card, delete, restore, purge",
+              file=sys.stderr)
+        return EXIT_USAGE
+
+    return func
+
+
+def _fail(message: str) -> int:
+    print(f"shaftbench log: {message}", file=sys.stderr)
+    return EXIT_USAGE
+
+
+def _guarded(func: Callable[[argparse.Namespace], int]) -> Callable[[argparse.Namespace], int]:
+    """Run a command; a LogError or OS error becomes one line on stderr and exit code 2."""
+
+    def run(args: argparse.Namespace) -> int:
+        from workbench.store import LogError
+
+        try:
+            return func(args)
+        except LogError as err:
+            return _fail(str(err))
+        except OSError as err:
+            where = f" {err.filename}" if getattr(err, "filename", None) else ""
+            return _fail(f"cannot write{where}: {err.strerror or err}")
+        except KeyboardInterrupt:
+            return 130
+
+    run.__name__ = func.__name__
+    run.__doc__ = func.__doc__
+    return run
+
+
+def _console(file: Any = None) -> Any:
+    from rich.console import Console
+
+    return Console(file=file, highlight=False, soft_wrap=False)
+
+
+def _open(args: argparse.Namespace, *, create: bool = False) -> Any:
+    from workbench.store import JobLog
+
+    return JobLog.open(args.log, create=create)
+
+
+def _write_out(args: argparse.Namespace, text: str) -> None:
+    if args.output:
+        Path(args.output).write_text(text, encoding="utf-8")
+        print(f"wrote {args.output}", file=sys.stderr)
+    else:
+        sys.stdout.write(text)
+
+
+def _summary(record: Any) -> dict[str, Any]:
+    full = record.as_dict()
+    return {k: v for k, v in full.items() if k not in ("inputs", "result")}
+
+
+def _cmd_list(args: argparse.Namespace) -> int:
+    if args.limit < 1:
+        return _fail("--limit: expected a whole number of 1 or more")
+    from rich.table import Table
+
+    from workbench.report.jobcard import literal, verdict_text, when
+    from workbench.store import default_log_path
+
+    path = Path(args.log).expanduser() if args.log else default_log_path()
+    if not path.exists():
+        if args.json:
+            sys.stdout.write("[]\n")
+        else:
+            print(f"no jobs saved yet (no job log at {path})")
+        return EXIT_OK
+    with _open(args, create=False) as log:
+        filters = dict(text=args.text, verdict=args.verdict, since=args.since, until=args.until,
+                       deleted=bool(args.deleted))
+        records = log.search(limit=args.limit, **filters)
+        total = log.count(**filters)
+    if args.json:
+        sys.stdout.write(json.dumps([_summary(r) for r in records], ensure_ascii=False, indent=1) + "\n")
+        return EXIT_OK
+    console = _console()
+    if not records:
+        console.print("no jobs match" if total == 0 else "no jobs on this page")
+        return EXIT_OK
+    table = Table(title="jobs in the bin" if args.deleted else None, title_justify="left")
+    for heading in ("id", "saved", "asset", "location", "verdict", "material", "by"):
+        table.add_column(heading, justify="right" if heading == "id" else "left")
+    for r in records:
+        table.add_row(str(r.id), when(r.created_at), literal(r.asset), literal(r.location),
+                      verdict_text(r.verdict), literal(r.material), literal(r.by))
+    console.print(table)
+    console.print(f"{len(records)} of {total} job{'s' if total != 1 else ''}")
+    return EXIT_OK
+
+
+def _cmd_show(args: argparse.Namespace) -> int:
+    with _open(args) as log:
+        record = log.get(args.id)
+        if args.json:
+            sys.stdout.write(json.dumps(record.as_dict(), ensure_ascii=False, indent=1) + "\n")
+            return EXIT_OK
+        reopened = log.reopen(args.id)
+    from rich.table import Table
+    from rich.text import Text
+
+    from workbench.report.jobcard import job_card_for_record, literal, when
+
+    console = _console()
+    console.print(job_card_for_record(record))
+    inputs = Table.grid(padding=(0, 2))
+    inputs.add_column(style="dim")
+    inputs.add_column()
+    for key, value in record.inputs.items():
+        inputs.add_row(literal(key), literal(value))
+    console.print(Text("Inputs as typed", style="bold"))
+    console.print(inputs)
+    if record.deleted:
+        console.print(Text(f"This job is in the bin since {when(record.deleted_at)}.", style="bold"))
+    console.print(recheck_text(reopened))
+    return EXIT_OK
+
+
+def recheck_text(reopened: Any) -> Any:
+    """A plain statement of whether today's program agrees with a stored job (Rich Text)."""
+    from rich.text import Text
+
+    from workbench.report.jobcard import literal
+
+    if reopened.new_result is None:
+        return Text.assemble(("Today's program rejects these inputs: ", "bold red"), literal(reopened.error))
+    if not reopened.differences:
+        return Text("Recomputed today: same verdict and figures as stored.", style="green")
+    text = Text(f"Recomputed today: {len(reopened.differences)} figure(s) differ from the stored result "
+                f"(saved by version {reopened.record.program_version}):\n", style="bold yellow")
+    for diff in reopened.differences:
+        text.append_text(literal(f"  {diff}\n"))
+    return text
+
+
+def _cmd_export(args: argparse.Namespace) -> int:
+    from workbench.store.exchange import write_csv, write_json
+
+    writer = write_csv if args.format == "csv" else write_json
+    with _open(args) as log:
+        if args.output:
+            out_path = Path(args.output)
+            temp = out_path.with_name(out_path.name + ".part")
+            with open(temp, "w", encoding="utf-8", newline="") as out:
+                count = writer(log.iter_export_rows(), out)
+            temp.replace(out_path)
+            print(f"exported {count} job{'s' if count != 1 else ''} to {out_path}", file=sys.stderr)
+        else:
+            writer(log.iter_export_rows(), sys.stdout)
+    return EXIT_OK
+
+
+def _cmd_import(args: argparse.Namespace) -> int:
+    from workbench.store.exchange import read_jobs_file
+
+    rows = read_jobs_file(Path(args.file))
+    with _open(args, create=True) as log:
+        added = log.import_jobs(rows)
+    skipped = len(rows) - added
+    note = f" ({skipped} already in the log)" if skipped else ""
+    print(f"imported {added} job{'s' if added != 1 else ''}{note}")
+    return EXIT_OK
+
+
+def _cmd_card(args: argparse.Namespace) -> int:
+    from workbench.report.jobcard import export_card, job_card_for_record
+
+    with _open(args) as log:
+        record = log.get(args.id)
+    _write_out(args, export_card(job_card_for_record(record), args.format))
+    return EXIT_OK
+
+
+def _cmd_delete(args: argparse.Namespace) -> int:
+    with _open(args) as log:
+        log.delete(args.id)
+    print(f"job {args.id} moved to the bin (shaftbench log restore {args.id} brings it back)")
+    return EXIT_OK
+
+
+def _cmd_restore(args: argparse.Namespace) -> int:
+    with _open(args) as log:
+        log.restore(args.id)
+    print(f"job {args.id} restored")
+    return EXIT_OK
+
+
+def _cmd_purge(args: argparse.Namespace) -> int:
+    with _open(args) as log:
+        removed = log.purge()
+    print(f"removed {removed} job{'s' if removed != 1 else ''} from the bin for good")
+    return EXIT_OK

@@ -1,0 +1,269 @@
+"""The job card: a one-page record of a checked job, for the file and the workshop wall.
+
+Built from Rich renderables and exported through a recording Console as HTML, SVG or plain text.
+Everything a person typed is shown literally (never read as markup, control characters replaced).
+"""
+
+from __future__ import annotations
+
+import io
+import math
+import re
+from collections.abc import Mapping
+from datetime import datetime
+from typing import Any
+
+from rich import box
+from rich.console import Console, Group, RenderableType
+from rich.panel import Panel
+from rich.table import Table
+from rich.text import Text
+
+FORMATS = ("html", "svg", "text")
+CARD_TITLE = "Shaftbench job card"
+VERDICT_STYLES = {"pass": "bold green", "marginal": "bold yellow", "fail": "bold red"}
+_CONTROL = re.compile(r"[\x00-\x08\x0b-\x1f\x7f-\x9f]")
+
+
+def literal(value: Any, style: str = "") -> Text:
+    """User text as a Rich Text shown exactly as typed: no markup, control characters as '?'."""
+    return Text(_CONTROL.sub("?", "" if value is None else str(value)), style=style)
+
+
+def number(value: Any, scale: float = 1.0, unit: str = "") -> str:
+    """A result figure for display: ``value / scale`` to about three significant figures, plus unit."""
+    if isinstance(value, bool) or not isinstance(value, (int, float)):
+        return "-"
+    shown = value / scale
+    if math.isinf(shown):
+        text = "no limit" if shown > 0 else "-inf"
+    elif math.isnan(shown):
+        text = "-"
+    elif abs(shown) >= 100 or shown == 0:
+        text = f"{shown:,.0f}"
+    elif abs(shown) >= 10:
+        text = f"{shown:.1f}"
+    elif abs(shown) >= 0.1:
+        text = f"{shown:.2f}"
+    else:
+        text = f"{shown:.3g}"
+    return f"{text} {unit}".rstrip() if text not in ("-", "no limit") else text
+
+
+def when(iso: str | None) -> str:
+    """A stored UTC ISO time as ``2025-03-01 08:30 UTC`` (or '-')."""
+    if not iso:
+        return "-"
+    try:
+        return datetime.fromisoformat(iso).strftime("%Y-%m-%d %H:%M UTC")
+    except ValueError:
+        return str(iso)
+
+
+def verdict_text(verdict: Any) -> Text:
+    """The verdict word in capitals, coloured (the word carries the meaning, not the colour)."""
+    word = verdict if isinstance(verdict, str) and verdict else "no verdict"
+    return Text(word.upper(), style=VERDICT_STYLES.get(word, "bold"))
+
+
+def _pairs(rows: list[tuple[str, Any]]) -> Table:
+    table = Table.grid(padding=(0, 2))
+    table.add_column(style="dim", no_wrap=True)
+    table.add_column()
+    for label, value in rows:
+        table.add_row(label, value if isinstance(value, Text) else literal(value))
+    return table
+
+
+def _section(title: str, body: RenderableType) -> Panel:
+    return Panel(body, title=Text(title, style="bold"), title_align="left", box=box.SQUARE, padding=(0, 1))
+
+
+def _drive(result: Mapping[str, Any]) -> Table:
+    drive = result.get("drive") or {}
+    settings = result.get("settings") or {}
+    return _pairs([
+        ("motor power", number(drive.get("power_W"), 1000, "kW")),
+        ("motor speed", number(drive.get("motor_speed_rpm"), 1, "rpm")),
+        ("ratio / efficiency", f"{number(drive.get('ratio'))} / {number(drive.get('efficiency'))}"),
+        ("service / peak factor", f"{number(drive.get('service_factor'))} / {number(drive.get('peak_factor'))}"),
+        ("shaft speed", number(drive.get("shaft_speed_rpm"), 1, "rpm")),
+        ("running torque", number(drive.get("running_torque_Nm"), 1, "N·m")),
+        ("design torque", number(drive.get("design_torque_Nm"), 1, "N·m")),
+        ("peak torque", number(drive.get("peak_torque_Nm"), 1, "N·m")),
+        ("required safety factor", number(settings.get("required_sf"))),
+        ("fatigue criterion", settings.get("fatigue_criterion") or "-"),
+    ])
+
+
+def _mount(result: Mapping[str, Any]) -> Table:
+    mount = result.get("mount") or {}
+    return _pairs([
+        ("element", mount.get("element") or "-"),
+        ("load factor", number(mount.get("load_factor"))),
+        ("pitch diameter", number(mount.get("pitch_diameter_m"), 1e-3, "mm")),
+        ("overhang", number(mount.get("overhang_m"), 1e-3, "mm")),
+        ("side load", number(mount.get("side_load_N"), 1, "N")),
+        ("bending moment", number(mount.get("bending_moment_Nm"), 1, "N·m")),
+    ])
+
+
+def _shafts(result: Mapping[str, Any]) -> RenderableType:
+    shafts = [s for s in (result.get("shafts") or []) if isinstance(s, Mapping)]
+    if not shafts:
+        return Text("no shaft in this job", style="dim")
+    table = Table(box=box.SIMPLE_HEAD, pad_edge=False, expand=True)
+    table.add_column("", style="dim", no_wrap=True)
+    for shaft in shafts:
+        table.add_column(literal(shaft.get("role", "shaft")), ratio=1)
+    rows: list[tuple[str, Any]] = [
+        ("spec", lambda s: literal(s.get("spec", ""))),
+        ("material", lambda s: literal(s.get("material_name") or s.get("material") or "")),
+        ("max shear (torsion)", lambda s: number(s.get("max_shear_stress_Pa"), 1e6, "MPa")),
+        ("bending stress", lambda s: number(s.get("bending_stress_Pa"), 1e6, "MPa")),
+        ("von Mises stress", lambda s: number(s.get("von_mises_stress_Pa"), 1e6, "MPa")),
+        ("endurance limit", lambda s: number(s.get("endurance_limit_Pa"), 1e6, "MPa")),
+        ("twist", lambda s: f"{number(s.get('twist_deg_per_m'), 1, '°/m')} "
+                            f"(limit {number(s.get('twist_limit_deg_per_m'), 1, '°/m')})"),
+        ("static safety factor", lambda s: number(s.get("static_safety_factor"))),
+        ("shear-yield safety factor", lambda s: number(s.get("shear_yield_safety_factor"))),
+        ("fatigue safety factor", lambda s: number(s.get("fatigue_safety_factor"))),
+        ("verdict", lambda s: verdict_text(s.get("verdict"))),
+    ]
+    for label, cell in rows:
+        table.add_row(label, *(cell(s) for s in shafts))
+    whys = [
+        Text.assemble((f"{s.get('role', 'shaft')}: ", "dim"), literal(s.get("why", "")))
+        for s in shafts
+        if s.get("why")
+    ]
+    return Group(table, *whys)
+
+
+def _deciding_shaft(result: Mapping[str, Any]) -> Mapping[str, Any]:
+    shafts = [s for s in (result.get("shafts") or []) if isinstance(s, Mapping)]
+    for role in ("candidate", "existing"):
+        for shaft in shafts:
+            if shaft.get("role") == role:
+                return shaft
+    return {}
+
+
+def _verdict(result: Mapping[str, Any], fitted: str) -> RenderableType:
+    shaft = _deciding_shaft(result)
+    line = Text.assemble(("Overall: ", "bold"), verdict_text(result.get("verdict")))
+    if shaft:
+        line.append_text(Text.assemble(("  (", "dim"), literal(shaft.get("role", "")), (" ", "dim"),
+                                       literal(shaft.get("spec", "")), (")", "dim")))
+    parts: list[RenderableType] = [line]
+    if shaft.get("governing"):
+        parts.append(Text.assemble(("governed by: ", "dim"), literal(shaft.get("governing"))))
+    if shaft.get("why"):
+        parts.append(Text.assemble(("why: ", "dim"), literal(shaft.get("why"))))
+    comparison = result.get("comparison") or {}
+    if comparison:
+        parts.append(Text.assemble(
+            ("candidate / existing: ", "dim"),
+            f"strength {number(comparison.get('strength_ratio'))}, "
+            f"stiffness {number(comparison.get('stiffness_ratio'))}, "
+            f"mass {number(comparison.get('mass_ratio'))}",
+        ))
+    parts.append(Text.assemble(("fitted: ", "dim"), literal(fitted) if fitted else Text("not recorded", style="dim")))
+    return Group(*parts)
+
+
+def _cautions(result: Mapping[str, Any]) -> RenderableType:
+    cautions = result.get("cautions") or []
+    if not cautions:
+        return Text("none listed", style="dim")
+    table = Table.grid(padding=(0, 1))
+    table.add_column(no_wrap=True)
+    table.add_column()
+    for caution in cautions:
+        table.add_row("-", literal(caution))
+    return table
+
+
+def _signatures() -> Table:
+    table = Table.grid(padding=(1, 4), expand=True)
+    for _ in range(3):
+        table.add_column(ratio=1)
+    line = "_" * 22
+    table.add_row(f"Fitted by\n\n{line}", f"Checked by\n\n{line}", f"Date\n\n{line}")
+    return table
+
+
+def job_card(
+    result: Mapping[str, Any],
+    *,
+    asset: str = "",
+    location: str = "",
+    by: str = "",
+    note: str = "",
+    fitted: str = "",
+    job_id: int | None = None,
+    created_at: str | None = None,
+    program_version: str = "",
+) -> RenderableType:
+    """The job card as one Rich renderable (a saved job or one not saved yet)."""
+    heading = Text(CARD_TITLE, style="bold")
+    if job_id is not None:
+        heading.append(f"  job {job_id}", style="bold")
+    head = _pairs([
+        ("asset", literal(asset or "-")),
+        ("location", literal(location or "-")),
+        ("date", when(created_at)),
+        ("checked by", literal(by or "-")),
+        ("program", literal(program_version or (result.get("program") or {}).get("version", "-"))),
+    ])
+    notes = literal(note) if note else Text("none", style="dim")
+    return Panel(
+        Group(
+            head,
+            _section("Drive", _drive(result)),
+            _section("Mount", _mount(result)),
+            _section("Shafts", _shafts(result)),
+            _section("Verdict", _verdict(result, fitted)),
+            _section("Notes", notes),
+            _section("Safety cautions", _cautions(result)),
+            _section("Signatures", _signatures()),
+        ),
+        title=heading,
+        box=box.HEAVY,
+        padding=(0, 1),
+    )
+
+
+def job_card_for_record(record: Any) -> RenderableType:
+    """The job card of a stored job (a ``workbench.store.JobRecord``)."""
+    return job_card(
+        record.result,
+        asset=record.asset,
+        location=record.location,
+        by=record.by,
+        note=record.note,
+        fitted=record.fitted,
+        job_id=record.id,
+        created_at=record.created_at,
+        program_version=record.program_version,
+    )
+
+
+def export_card(card: RenderableType, fmt: str, *, width: int = 96) -> str:
+    """The card exported as ``html``, ``svg`` or ``text`` through a recording Console."""
+    if fmt not in FORMATS:
+        raise ValueError(f"card format must be one of {', '.join(FORMATS)}, not {fmt!r}")
+    console = Console(
+        record=True,
+        file=io.StringIO(),
+        width=width,
+        force_terminal=fmt != "text",
+        color_system="truecolor" if fmt != "text" else None,
+        legacy_windows=False,
+    )
+    console.print(card)
+    if fmt == "html":
+        return console.export_html(inline_styles=True)
+    if fmt == "svg":
+        return console.export_svg(title=CARD_TITLE)
+    return console.export_text(styles=False)

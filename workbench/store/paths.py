@@ -1,0 +1,49 @@
+"""Where the job log lives, and creating its file and folder private to the owner."""
+
+from __future__ import annotations
+
+import os
+from pathlib import Path
+
+ENV_VAR = "SHAFTBENCH_LOG"
+"""Environment variable that names the job log file (overridden by ``--log PATH``)."""
+
+FILE_NAME = "jobs.sqlite3"
+
+
+def default_log_path() -> Path:
+    """The job log file to use when none is given: ``$SHAFTBENCH_LOG``, else the user data folder."""
+    env = os.environ.get(ENV_VAR, "").strip()
+    if env:
+        return Path(env).expanduser()
+    from platformdirs import user_data_dir
+
+    return Path(user_data_dir("shaftbench", appauthor=False)) / FILE_NAME
+
+
+def make_private_dirs(folder: Path) -> None:
+    """Create ``folder`` and any missing parents; folders created here get mode 0700."""
+    missing: list[Path] = []
+    probe = folder
+    while not probe.exists():
+        missing.append(probe)
+        if probe.parent == probe:
+            break
+        probe = probe.parent
+    for new in reversed(missing):
+        try:
+            new.mkdir(mode=0o700)
+        except FileExistsError:  # made by another process meanwhile
+            continue
+        os.chmod(new, 0o700)  # mkdir's mode is filtered by the umask
+
+
+def create_private_file(path: Path) -> bool:
+    """Create ``path`` empty with mode 0600 unless it exists; True if this call created it."""
+    try:
+        fd = os.open(path, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o600)
+    except FileExistsError:
+        return False
+    os.close(fd)
+    os.chmod(path, 0o600)
+    return True

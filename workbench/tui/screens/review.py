@@ -1,0 +1,421 @@
+"""The job log review: find a saved job, look it over, reopen it, copy it, bin it, print its card.
+
+Newest first, one page of rows at a time; every query runs in a worker thread with its own
+connection, so a log of any size never blocks typing. Dismisses with
+``{"action": "reopen" | "duplicate", "job_id": int, "inputs": dict}`` or None.
+"""
+
+from __future__ import annotations
+
+from datetime import date
+from pathlib import Path
+from typing import Any
+
+from rich.console import Group
+from rich.text import Text
+from textual import on, work
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.coordinate import Coordinate
+from textual.screen import ModalScreen, Screen
+from textual.widgets import DataTable, Footer, Input, Label, Select, Static
+from textual.worker import get_current_worker
+
+PAGE_SIZE = 100
+VERDICT_CHOICES = [("pass", "pass"), ("marginal", "marginal"), ("fail", "fail")]
+CARD_SUFFIXES = {".html": "html", ".htm": "html", ".svg": "svg", ".txt": "text"}
+
+
+def _valid_date(text: str) -> bool:
+    try:
+        date.fromisoformat(text.strip())
+    except ValueError:
+        return False
+    return True
+
+
+class ConfirmScreen(ModalScreen[bool]):
+    """A yes/no question; ``y`` answers yes, ``n`` or escape answers no."""
+
+    DEFAULT_CSS = """
+    ConfirmScreen { align: center middle; }
+    ConfirmScreen > Vertical { width: 64; height: auto; border: thick $warning; padding: 1 2; background: $surface; }
+    """
+    BINDINGS = [
+        Binding("y", "answer(True)", "Yes", id="review.confirm.yes"),
+        Binding("n,escape", "answer(False)", "No", id="review.confirm.no"),
+    ]
+
+    def __init__(self, question: Text) -> None:
+        super().__init__()
+        self.question = question
+
+    def compose(self) -> ComposeResult:
+        with Vertical():
+            yield Static(self.question)
+            yield Label("y = yes    n / Esc = no")
+
+    def action_answer(self, yes: bool) -> None:
+        self.dismiss(yes)
+
+
+class CardPathScreen(ModalScreen["Path | None"]):
+    """Asks where to write a job card; the file suffix picks the format (.html, .svg, .txt)."""
+
+    DEFAULT_CSS = """
+    CardPathScreen { align: center middle; }
+    CardPathScreen > Vertical { width: 80; height: auto; border: thick $accent; padding: 1 2; background: $surface; }
+    """
+    BINDINGS = [Binding("escape", "cancel", "Cancel", id="review.card.cancel")]
+
+    def __init__(self, suggestion: Path) -> None:
+        super().__init__()
+        self.suggestion = suggestion
+
+    def compose(self) -> ComposeResult:
+        with Vertical():
+            yield Label("Write the job card to (.html, .svg or .txt), Enter to write:")
+            yield Input(str(self.suggestion), id="card-path")
+
+    @on(Input.Submitted, "#card-path")
+    def _submitted(self, event: Input.Submitted) -> None:
+        text = event.value.strip()
+        if text:
+            self.dismiss(Path(text).expanduser())
+
+    def action_cancel(self) -> None:
+        self.dismiss(None)
+
+
+class ReviewScreen(Screen["dict[str, Any] | None"]):
+    """The job log: filter as you type, page through, act on the highlighted job."""
+
+    DEFAULT_CSS = """
+    ReviewScreen #review-filters { height: auto; }
+    ReviewScreen #review-text { width: 2fr; }
+    ReviewScreen #review-verdict { width: 22; }
+    ReviewScreen .review-date { width: 20; }
+    ReviewScreen #review-body { height: 1fr; }
+    ReviewScreen #review-table { width: 3fr; }
+    ReviewScreen #review-detail-scroll { width: 2fr; border-left: solid $primary; padding: 0 1; }
+    ReviewScreen #review-status { height: 1; padding: 0 1; background: $boost; }
+    """
+
+    BINDINGS = [
+        Binding("escape", "close", "Close", id="review.close", tooltip="Leave the filter, or close the log"),
+        Binding("o", "reopen", "Reopen", id="review.reopen", tooltip="Put this job back on the sheet"),
+        Binding("c", "duplicate", "Copy as new", id="review.duplicate",
+                tooltip="Start a new job from this one's inputs"),
+        Binding("d", "delete", "Bin", id="review.delete", tooltip="Move this job to the bin (asks first)"),
+        Binding("r", "restore", "Restore", id="review.restore", tooltip="Bring this job back from the bin"),
+        Binding("x", "card", "Card", id="review.card", tooltip="Write this job's card to a file"),
+        Binding("t", "recheck", "Check today", id="review.recheck",
+                tooltip="Recompute with today's program and list what differs"),
+        Binding("b", "toggle_bin", "Show bin", id="review.bin", tooltip="Switch between the log and the bin"),
+        Binding("n", "page(1)", "Next page", id="review.next"),
+        Binding("p", "page(-1)", "Prev page", id="review.prev"),
+        Binding("slash", "focus_filter", "Filter", id="review.filter", tooltip="Type to filter"),
+    ]
+
+    def __init__(
+        self,
+        log_path: str | Path | None = None,
+        *,
+        page_size: int = PAGE_SIZE,
+        card_dir: str | Path | None = None,
+        name: str | None = None,
+        id: str | None = None,
+    ) -> None:
+        super().__init__(name=name, id=id)
+        self.log_path = Path(log_path).expanduser() if log_path else None
+        self.page_size = page_size
+        self.card_dir = Path(card_dir) if card_dir else Path.cwd()
+        self.page = 0
+        self.total = 0
+        self.show_bin = False
+        self.records: dict[int, Any] = {}
+        self.rechecks: dict[int, Any] = {}
+        self.loads = 0
+        """How many pages have been shown (tests wait on it)."""
+
+    # -- layout ---------------------------------------------------------------------------
+
+    def compose(self) -> ComposeResult:
+        with Horizontal(id="review-filters"):
+            yield Input(placeholder="filter: asset, location, notes, material", id="review-text")
+            yield Select(VERDICT_CHOICES, prompt="any verdict", id="review-verdict")
+            yield Input(placeholder="since YYYY-MM-DD", id="review-since", classes="review-date")
+            yield Input(placeholder="until YYYY-MM-DD", id="review-until", classes="review-date")
+        with Horizontal(id="review-body"):
+            yield DataTable(id="review-table", cursor_type="row", zebra_stripes=True)
+            with VerticalScroll(id="review-detail-scroll"):
+                yield Static(id="review-detail")
+        yield Static(id="review-status")
+        yield Footer()
+
+    def on_mount(self) -> None:
+        table = self.query_one(DataTable)
+        for label, key in (("id", "id"), ("saved (UTC)", "saved"), ("asset", "asset"),
+                           ("location", "location"), ("verdict", "verdict"), ("material", "material")):
+            table.add_column(label, key=key)
+        table.focus()
+        self.reload()
+
+    # -- loading --------------------------------------------------------------------------
+
+    def filters(self) -> dict[str, Any] | None:
+        """The filters as typed, or None while a date is half typed (the last page stays)."""
+        since = self.query_one("#review-since", Input).value.strip()
+        until = self.query_one("#review-until", Input).value.strip()
+        for what, text in (("since", since), ("until", until)):
+            if text and not _valid_date(text):
+                self._status(f"{what}: type a date like 2025-03-01")
+                return None
+        verdict = self.query_one("#review-verdict", Select).value
+        return {
+            "text": self.query_one("#review-text", Input).value,
+            "verdict": verdict if isinstance(verdict, str) else None,
+            "since": since or None,
+            "until": until or None,
+            "deleted": self.show_bin,
+        }
+
+    def reload(self, page: int = 0) -> None:
+        """Query the page (in a worker) with the current filters."""
+        filters = self.filters()
+        if filters is not None:
+            self.page = max(0, page)
+            self._load(filters, self.page)
+
+    @work(thread=True, exclusive=True, group="review-load")
+    def _load(self, filters: dict[str, Any], page: int) -> None:
+        from workbench.store import JobLog, LogError
+
+        worker = get_current_worker()
+        try:
+            with JobLog.open(self.log_path, create=False) as log:
+                total = log.count(**filters)
+                records = log.search(limit=self.page_size, offset=page * self.page_size, **filters)
+        except LogError as err:
+            if not worker.is_cancelled:
+                self.app.call_from_thread(self._show_error, str(err))
+            return
+        if not worker.is_cancelled:
+            self.app.call_from_thread(self._show_page, records, total)
+
+    def _show_error(self, message: str) -> None:
+        self.records = {}
+        self.total = 0
+        self.query_one(DataTable).clear()
+        self.query_one("#review-detail", Static).update("")
+        self._status(message)
+        self.loads += 1
+
+    def _show_page(self, records: list[Any], total: int) -> None:
+        from workbench.report.jobcard import literal, verdict_text, when
+
+        table = self.query_one(DataTable)
+        keep = self.current_id()
+        table.clear()
+        self.records = {r.id: r for r in records}
+        self.total = total
+        for r in records:
+            table.add_row(
+                Text(str(r.id), justify="right"), when(r.created_at), literal(r.asset),
+                literal(r.location), verdict_text(r.verdict), literal(r.material), key=str(r.id),
+            )
+        if keep in self.records:
+            table.move_cursor(row=table.get_row_index(str(keep)))
+        self._update_detail()
+        self._update_status()
+        self.loads += 1
+
+    def _status(self, message: str) -> None:
+        self.query_one("#review-status", Static).update(Text(message))
+
+    def _update_status(self) -> None:
+        where = "bin" if self.show_bin else "log"
+        if not self.total:
+            filters = self.filters() or {}
+            filtered = any(filters.get(k) for k in ("text", "verdict", "since", "until"))
+            self._status(f"no jobs in the {where} match the filter" if filtered else f"the {where} is empty")
+            return
+        first = self.page * self.page_size + 1
+        last = first + len(self.records) - 1
+        pages = (self.total + self.page_size - 1) // self.page_size
+        self._status(f"{where}: jobs {first}-{last} of {self.total:,}  page {self.page + 1} of {pages}")
+
+    # -- the highlighted job --------------------------------------------------------------
+
+    def current_id(self) -> int | None:
+        """The id of the highlighted job, or None."""
+        table = self.query_one(DataTable)
+        if not table.row_count:
+            return None
+        row_key, _ = table.coordinate_to_cell_key(Coordinate(table.cursor_row, 0))
+        return int(row_key.value) if row_key.value is not None else None
+
+    def current(self) -> Any | None:
+        job_id = self.current_id()
+        return self.records.get(job_id) if job_id is not None else None
+
+    @on(DataTable.RowHighlighted)
+    def _highlighted(self) -> None:
+        self._update_detail()
+
+    @on(DataTable.RowSelected)
+    def _selected(self) -> None:
+        self.action_reopen()
+
+    def _update_detail(self) -> None:
+        from workbench.report.jobcard import job_card_for_record, when
+
+        detail = self.query_one("#review-detail", Static)
+        record = self.current()
+        if record is None:
+            detail.update("")
+            return
+        parts: list[Any] = []
+        if record.deleted_at:
+            parts.append(Text(f"In the bin since {when(record.deleted_at)} (r restores it)", style="bold yellow"))
+        if record.id in self.rechecks:
+            from workbench.cli_log import recheck_text
+
+            parts.append(recheck_text(self.rechecks[record.id]))
+        parts.append(job_card_for_record(record))
+        detail.update(Group(*parts))
+
+    # -- actions --------------------------------------------------------------------------
+
+    def action_close(self) -> None:
+        if isinstance(self.focused, Input):
+            self.query_one(DataTable).focus()
+        else:
+            self.dismiss(None)
+
+    def action_focus_filter(self) -> None:
+        self.query_one("#review-text", Input).focus()
+
+    def _choose(self, action: str) -> None:
+        record = self.current()
+        if record is None:
+            self.notify("No job highlighted.", severity="warning")
+            return
+        self.dismiss({"action": action, "job_id": record.id, "inputs": dict(record.inputs)})
+
+    def action_reopen(self) -> None:
+        self._choose("reopen")
+
+    def action_duplicate(self) -> None:
+        self._choose("duplicate")
+
+    def action_page(self, step: int) -> None:
+        pages = max(1, (self.total + self.page_size - 1) // self.page_size)
+        target = min(max(0, self.page + step), pages - 1)
+        if target != self.page:
+            self.reload(target)
+
+    def action_toggle_bin(self) -> None:
+        self.show_bin = not self.show_bin
+        self.reload()
+
+    def action_delete(self) -> None:
+        from workbench.report.jobcard import literal
+
+        record = self.current()
+        if record is None:
+            return
+        if record.deleted_at:
+            self.notify(f"Job {record.id} is already in the bin.", severity="warning")
+            return
+        question = Text.assemble(f"Move job {record.id} (", literal(record.asset or "no asset"),
+                                 ") to the bin? It can be restored later.")
+
+        def answered(yes: bool | None) -> None:
+            if yes:
+                self._change("delete", record.id)
+
+        self.app.push_screen(ConfirmScreen(question), answered)
+
+    def action_restore(self) -> None:
+        record = self.current()
+        if record is None:
+            return
+        if not record.deleted_at:
+            self.notify(f"Job {record.id} is not in the bin.", severity="warning")
+            return
+        self._change("restore", record.id)
+
+    @work(thread=True, group="review-write")
+    def _change(self, what: str, job_id: int) -> None:
+        from workbench.store import JobLog, LogError
+
+        try:
+            with JobLog.open(self.log_path, create=False) as log:
+                getattr(log, what)(job_id)
+        except LogError as err:
+            self.app.call_from_thread(self.notify, str(err), severity="error")
+            return
+        done = "moved to the bin" if what == "delete" else "restored"
+        self.app.call_from_thread(self.notify, f"Job {job_id} {done}.")
+        self.app.call_from_thread(self.reload, self.page)
+
+    def action_card(self) -> None:
+        record = self.current()
+        if record is None:
+            return
+
+        def chosen(path: Path | None) -> None:
+            if path is not None:
+                self._write_card(record, path)
+
+        self.app.push_screen(CardPathScreen(self.card_dir / f"job-{record.id}-card.html"), chosen)
+
+    @work(thread=True, group="review-write")
+    def _write_card(self, record: Any, path: Path) -> None:
+        from workbench.report.jobcard import export_card, job_card_for_record
+
+        fmt = CARD_SUFFIXES.get(path.suffix.lower(), "text")
+        try:
+            path.write_text(export_card(job_card_for_record(record), fmt), encoding="utf-8")
+        except OSError as err:
+            self.app.call_from_thread(self.notify, f"Cannot write {path}: {err.strerror or err}", severity="error")
+            return
+        self.app.call_from_thread(self.notify, f"Card of job {record.id} written to {path}.")
+
+    def action_recheck(self) -> None:
+        record = self.current()
+        if record is not None:
+            self._recheck(record.id)
+
+    @work(thread=True, exclusive=True, group="review-recheck")
+    def _recheck(self, job_id: int) -> None:
+        from workbench.store import JobLog, LogError
+
+        try:
+            with JobLog.open(self.log_path, create=False) as log:
+                reopened = log.reopen(job_id)
+        except LogError as err:
+            self.app.call_from_thread(self.notify, str(err), severity="error")
+            return
+
+        def show() -> None:
+            self.rechecks[job_id] = reopened
+            self._update_detail()
+
+        self.app.call_from_thread(show)
+
+    # -- filters --------------------------------------------------------------------------
+
+    @on(Input.Changed, "#review-text, #review-since, #review-until")
+    def _filter_changed(self) -> None:
+        self.reload()
+
+    @on(Select.Changed, "#review-verdict")
+    def _verdict_changed(self) -> None:
+        self.reload()
+
+    @on(Input.Submitted, "#review-text, #review-since, #review-until")
+    def _filter_done(self) -> None:
+        self.query_one(DataTable).focus()
