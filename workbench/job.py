@@ -84,7 +84,7 @@ def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
         key = text.lower()
         row = material(key) if key in materials() else material_for_size(key, size_m)
     except KeyError as err:
-        raise QuantityError(field, str(err).strip("'\"")) from None
+        raise QuantityError(field, str(err.args[0])) from None
     return MaterialProps(row.key, row.name, row.tensile_Pa, row.yield_Pa, row.G_Pa, row.density_kg_m3)
 
 

@@ -112,12 +112,26 @@ def parse_spec(text: str, field: str = "shaft") -> ShaftGeometry:
     return ShaftGeometry(profile=profile, size_m=size, second_m=second, key_standard="ansi" if inch else "iso", **options)
 
 
+def inch_text(inches: float) -> str:
+    """Inches as the trade writes them: ``1-1/4`` for a multiple of 1/64, else a decimal (6 digits)."""
+    sixty_fourths = round(inches * 64)
+    if sixty_fourths > 0 and abs(inches * 64 - sixty_fourths) < 1e-6:
+        whole, part = divmod(sixty_fourths, 64)
+        if part == 0:
+            return f"{whole}"
+        num, den = part, 64
+        while num % 2 == 0:
+            num, den = num // 2, den // 2
+        return f"{whole}-{num}/{den}" if whole else f"{num}/{den}"
+    return f"{inches:.6g}"
+
+
 def format_spec(geometry: ShaftGeometry, system: str = "metric") -> str:
     """A spec string that parses back to ``geometry`` (sizes in mm or inch)."""
     def size(value_m: float) -> str:
         if system == "inch":
-            return f"{value_m / 0.0254:.4g}in"
-        return f"{value_m * 1000:.4g}mm"
+            return inch_text(value_m / 0.0254) + "in"
+        return f"{value_m * 1000:.6g}mm"
 
     g = geometry
     if g.profile == "tube":

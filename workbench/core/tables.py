@@ -21,6 +21,7 @@ from __future__ import annotations
 import csv
 import functools
 import pathlib
+import re
 from dataclasses import dataclass
 
 MARKS = ("V", "C", "M", "P")
@@ -206,7 +207,10 @@ def material_for_size(key: str, size_m: float) -> Material:
         if row.covers(size_m):
             return row
         raise KeyError(f"material {wanted!r} holds for {_range_text(row)}, not {size_m * 1e3:g} mm")
-    rows = [m for k, m in table.items() if k.startswith(wanted + "-") and m.size_max_m is not None]
+    rows = [
+        m for k, m in table.items()
+        if k.startswith(wanted + "-") and _RANGE_SUFFIX.fullmatch(k[len(wanted) + 1:]) and m.size_max_m is not None
+    ]
     if not rows:
         material(key)  # raises KeyError with suggestions
     for row in rows:
@@ -214,6 +218,10 @@ def material_for_size(key: str, size_m: float) -> Material:
             return row
     ranges = ", ".join(_range_text(r) for r in rows)
     raise KeyError(f"material {wanted!r} has no row for {size_m * 1e3:g} mm (rows: {ranges})")
+
+
+_RANGE_SUFFIX = re.compile(r"\d+(?:\.\d+)?-\d+(?:\.\d+)?")
+"""What follows a grade-and-condition key in a size-ranged row's key (``c45-qt`` + ``16-40``)."""
 
 
 def _range_text(row: Material) -> str:
