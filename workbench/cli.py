@@ -81,6 +81,8 @@ def build_parser() -> argparse.ArgumentParser:
     _add_job_options(check)
     _add_output_options(check)
     check.add_argument("--demo", action="store_true", help="start from the demo job (options given override it)")
+    check.add_argument("--solver", action="store_true",
+                       help="also solve keyed sections numerically and show the solver's keyseat peak beside Kts")
     _add_save_options(check)
     check.set_defaults(func=run_check)
 
@@ -146,7 +148,7 @@ def run_check(args: argparse.Namespace) -> int:
     from workbench.job import evaluate_inputs
 
     inputs = _inputs_from(args)
-    result = evaluate_inputs(inputs)
+    result = evaluate_inputs(inputs, solver=args.solver)
     job_id = None
     if getattr(args, "save", False):
         from workbench.cli_log import save_from_args

@@ -183,9 +183,11 @@ def parse_cases(inputs: Mapping[str, str]) -> list[ShaftCase]:
     return cases
 
 
-def evaluate_inputs(inputs: Mapping[str, str]) -> dict:
+def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
     """Evaluate a job typed as strings; return the JSON-ready result dict (see DEVELOPERS.md).
 
+    With ``solver``, each keyed shaft also gets ``keyseat_solver``: the numerical solver's peak
+    shear at the keyseat beside the handbook Kts estimate (the checks keep the handbook basis).
     Raises JobInputError naming the field for anything that cannot be used.
     """
     unknown = [k for k in inputs if k not in INPUT_KEYS]
@@ -200,6 +202,10 @@ def evaluate_inputs(inputs: Mapping[str, str]) -> dict:
         raise JobInputError(err.field, err.message) from None
     checks, comparison = evaluate(loads, mount, cases, settings)
     shafts = [_shaft_dict(case, check, inputs) for case, check in zip(cases, checks)]
+    if solver:
+        for shaft, case, check in zip(shafts, cases, checks):
+            if case.geometry.keyed:
+                shaft["keyseat_solver"] = keyseat_solver(case.geometry, check, loads.design_torque_Nm)
     result = {
         "program": {"name": "shaftbench", "version": __version__},
         "inputs": {k: str(v) for k, v in inputs.items()},
@@ -296,6 +302,28 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "why": check.why,
         "methods": check.methods,
         "notes": _material_notes(case),
+    }
+
+
+def keyseat_solver(geometry, check: ShaftCheck, design_torque_Nm: float) -> dict:
+    """The solver's view of a keyseat: true elastic peak shear and the Kts it implies, beside the
+    handbook estimate used by the checks (Shigley 9th ed., Table 7-1, end-mill keyseat Kts = 3.0).
+
+    The solver models a long keyseat away from its run-out, so its Kts reads lower than the
+    handbook's, which also covers the 3-D stress at the end of an end-milled seat.
+    """
+    from workbench.core.torsion_solver import solve_torsion
+
+    solution = solve_torsion(geometry)
+    nominal = check.section.shear_per_torque_Pa_per_Nm
+    return {
+        "peak_shear_stress_Pa": design_torque_Nm * solution.shear_per_torque_Pa_per_Nm,
+        "Kts_solver": solution.shear_per_torque_Pa_per_Nm / nominal,
+        "Kts_handbook": check.Kts,
+        "torsion_constant_m4": solution.torsion_constant_m4,
+        "torsion_constant_ratio": solution.torsion_constant_m4 / check.section.torsion_constant_m4,
+        "peak_location_m": list(solution.peak_location_m),
+        "method": solution.method,
     }
 
 

@@ -5,12 +5,15 @@ Syntax (ours):  PROFILE SIZE [WORD ...]
     round 35mm            tube 60mm/50mm        square 30mm
     flat 50mm x 20mm      hex 27mm              round 1-1/4in keyed ground
     round 40mm keyed sharp-shoulder             round 1 1/4" key 1/4x1/8in
+    round 25mm d-flat 2mm                       square 30mm radius 3mm
 
 SIZE: round = diameter; tube = outside/inside diameter; square = side; flat = width x thickness;
 hex = across flats. A bare number is millimetres; inch sizes accept 1.25in, 1-1/4in, 1 1/4".
 WORDS: ``keyed`` (standard keyseat for the diameter: DIN 6885-1 for metric sizes, ANSI B17.1 for
-inch sizes), ``key WxD`` (explicit keyseat width x depth), a finish (ground, machined, cold-drawn,
-hot-rolled, forged), a shoulder (sharp-shoulder, round-shoulder).
+inch sizes), ``key WxD`` (explicit keyseat width x depth), ``d-flat DEPTH`` / ``double-d DEPTH``
+(one or two ground flats on a round), ``radius R`` / ``chamfer C`` (corners of square or flat bar),
+a finish (ground, machined, cold-drawn, hot-rolled, forged), a shoulder (sharp-shoulder,
+round-shoulder). Flats, radii and chamfers are solved numerically (no closed form exists).
 """
 
 from __future__ import annotations
@@ -27,7 +30,8 @@ _SHOULDERS = {"sharp-shoulder": "sharp", "round-shoulder": "rounded", "shoulder"
 _INCH = re.compile(r"(in\b|inch|\"|″|'')", re.I)
 _TUBE_SPLIT = re.compile(r"(?<=[A-Za-z\"″'])\s*/\s*")
 _TIMES = re.compile(r"\s*[x×*]\s*", re.I)
-_WORDS = ("keyed", "key", *FINISHES, *_SHOULDERS)
+_SIZED_WORDS = ("d-flat", "double-d", "radius", "chamfer")
+_WORDS = ("keyed", "key", *_SIZED_WORDS, *FINISHES, *_SHOULDERS)
 _WORD_RE = re.compile(r"\s(" + "|".join(re.escape(w) for w in sorted(_WORDS, key=len, reverse=True)) + r")(?=\s|$)", re.I)
 
 SPEC_HELP = "e.g. 'round 35mm', 'tube 60mm/50mm', 'square 30mm', 'flat 50mm x 20mm', 'hex 27mm', 'round 1-1/4in keyed'"
@@ -100,6 +104,20 @@ def parse_spec(text: str, field: str = "shaft") -> ShaftGeometry:
             options["keyed"] = True
             options["key_width_m"] = parse_quantity(field, width_text, LENGTH, unit, high=size)
             options["key_depth_m"] = parse_quantity(field, depth_text, LENGTH, unit, high=size / 2)
+        elif word in _SIZED_WORDS:
+            if i + 1 >= len(words):
+                raise QuantityError(field, f"'{word}' needs a size, e.g. '{word} 3mm'")
+            value = parse_quantity(field, words[i + 1], LENGTH, unit, low=1e-4, high=size / 2)
+            i += 1
+            if word in ("d-flat", "double-d"):
+                if profile != "round":
+                    raise QuantityError(field, f"'{word}' (ground flats) is only for a round shaft")
+                options["flats"] = 1 if word == "d-flat" else 2
+                options["flat_depth_m"] = value
+            else:
+                if profile not in ("square", "flat"):
+                    raise QuantityError(field, f"a corner {word} is only for square or flat bar")
+                options["corner_radius_m" if word == "radius" else "chamfer_m"] = value
         elif word in FINISHES:
             options["finish"] = word
         elif word in _SHOULDERS:
@@ -109,6 +127,13 @@ def parse_spec(text: str, field: str = "shaft") -> ShaftGeometry:
         i += 1
     if options.get("keyed") and profile not in ("round", "tube"):
         raise QuantityError(field, f"a keyseat is only checked on round shafts, not {profile}")
+    if options.get("keyed") and options.get("flats"):
+        raise QuantityError(field, "a keyseat and ground flats on the same section are not modelled; check each")
+    if options.get("corner_radius_m") and options.get("chamfer_m"):
+        raise QuantityError(field, "give a corner radius or a chamfer, not both")
+    corner = options.get("corner_radius_m", 0.0) + options.get("chamfer_m", 0.0)
+    if corner and corner >= (second if profile == "flat" else size) / 2:
+        raise QuantityError(field, "the corner radius or chamfer must be less than half the bar's thickness")
     return ShaftGeometry(profile=profile, size_m=size, second_m=second, key_standard="ansi" if inch else "iso", **options)
 
 
@@ -145,6 +170,12 @@ def format_spec(geometry: ShaftGeometry, system: str = "metric") -> str:
             text += f" key {size(g.key_width_m)}x{size(g.key_depth_m)}"
         else:
             text += " keyed"
+    if g.flats:
+        text += f" {'d-flat' if g.flats == 1 else 'double-d'} {size(g.flat_depth_m)}"
+    if g.corner_radius_m:
+        text += f" radius {size(g.corner_radius_m)}"
+    if g.chamfer_m:
+        text += f" chamfer {size(g.chamfer_m)}"
     if g.finish != "machined":
         text += f" {g.finish}"
     if g.shoulder != "none":

@@ -11,6 +11,7 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass, field
+from functools import cache
 
 from workbench.core.geometry import ShaftGeometry
 from workbench.core.rectangle import rectangle_coefficients
@@ -77,25 +78,52 @@ def rectangle_properties(width_m: float, thickness_m: float) -> tuple[float, flo
     return b * c, k1 * b * c**3, 1.0 / (k2 * b * c * c), z_rot
 
 
-# Regular hexagon, size s across flats. Area and second moment exact; the torsion figures are the
-# numerical solver's when it is available (see section_for), else these coefficients.
-HEX_TORSION_K = 0.1154  # J = K s^4 (Roark's Formulas for Stress and Strain, regular hexagon; from memory)
-HEX_STRESS_K = 0.1963  # tau_max <= T / (K s^3): inscribed circle, conservative bound (pi/16)
-
-
 def hexagon_properties(across_flats_m: float) -> tuple[float, float, float, float]:
     """Regular hexagon, s across flats: (A, J, tau/T, Z).
 
     A = (sqrt 3 / 2) s^2; I = 5 sqrt3 s^4 / 144 about any centroidal axis (a regular polygon);
-    Z = I / (s / sqrt 3) = 5 s^3 / 48 (corner as extreme fibre). Exact geometry
-    (Roark's Formulas for Stress and Strain, Table A.1, regular polygon; from memory).
-    J = 0.1154 s^4 (Roark, torsion of a regular hexagon; from memory) and tau_max bounded by the
-    inscribed circle, 16 T / (pi s^3) — conservative. The solver replaces both where available.
+    Z = I / (s / sqrt 3) = 5 s^3 / 48 with a corner as extreme fibre (exact geometry).
+    J = k1 s^4 and tau_max = T / (k2 s^3) with k1, k2 from data/section_coefficients.csv, computed
+    by our torsion solver (all regular hexagons are similar, so two numbers cover every size) and
+    within 0.3 % of Roark's Formulas for Stress and Strain, 7th ed., Table 10.7 (from memory).
     """
+    k1, k2 = section_coefficients()["hex"]
     s = across_flats_m
     area = SQRT3 / 2.0 * s * s
     z = 5.0 * s**3 / 48.0
-    return area, HEX_TORSION_K * s**4, 1.0 / (HEX_STRESS_K * s**3), z
+    return area, k1 * s**4, 1.0 / (k2 * s**3), z
+
+
+@cache
+def section_coefficients() -> dict[str, tuple[float, float]]:
+    """(torsion coefficient, stress coefficient) per profile from data/section_coefficients.csv."""
+    import csv
+
+    from workbench.core.tables import data_dir
+
+    with (data_dir() / "section_coefficients.csv").open(newline="", encoding="utf-8") as fh:
+        return {row["profile"]: (float(row["torsion_coefficient"]), float(row["stress_coefficient"]))
+                for row in csv.DictReader(fh)}
+
+
+def needs_solver(geometry: ShaftGeometry) -> bool:
+    """True where no closed form exists: ground flats on a round, rounded or chamfered corners."""
+    return bool(geometry.flats or geometry.corner_radius_m or geometry.chamfer_m)
+
+
+def solved_section(geometry: ShaftGeometry) -> tuple[float, float, float, float, str]:
+    """(A, J, tau/T, Z_rotating, method) of a section by the numerical torsion solver (finite
+    elements on the Prandtl stress function; see workbench.core.torsion_solver) and the polygon's
+    exact area and bending properties (workbench.core.polygon_props)."""
+    from workbench.core.polygon_props import polygon_properties
+    from workbench.core.profiles import profile_polygon
+    from workbench.core.torsion_solver import solve_torsion
+
+    polygon = profile_polygon(geometry)
+    props = polygon_properties(polygon.outer, polygon.holes)
+    solution = solve_torsion(geometry)
+    return (props.area_m2, solution.torsion_constant_m4, solution.shear_per_torque_Pa_per_Nm,
+            props.rotating_section_modulus_m3, solution.method)
 
 
 def section_for(geometry: ShaftGeometry, key=None) -> Section:
@@ -109,7 +137,12 @@ def section_for(geometry: ShaftGeometry, key=None) -> Section:
     g = geometry
     methods: dict[str, str] = {}
     key_w = key_d = 0.0
-    if g.profile == "round":
+    if needs_solver(g):
+        area, polar, tau_t, z, how = solved_section(g)
+        methods["section"] = f"numerical torsion solver ({how}); area and Z from the polygon"
+        thickness = g.size_m if g.profile != "flat" else g.second_m
+        size_d = g.size_m if g.profile in ("round", "tube", "hex") else 0.808 * math.sqrt(g.size_m * thickness)
+    elif g.profile == "round":
         area, polar, tau_t, z = round_properties(g.size_m)
         methods["section"] = "exact, solid circle"
         size_d = g.size_m
@@ -125,7 +158,7 @@ def section_for(geometry: ShaftGeometry, key=None) -> Section:
         size_d = 0.808 * math.sqrt(g.size_m * thickness)
     elif g.profile == "hex":
         area, polar, tau_t, z = hexagon_properties(g.size_m)
-        methods["section"] = "hexagon: J from published coefficient (from memory), stress by inscribed circle bound"
+        methods["section"] = "regular hexagon: coefficients from our torsion solver (data/section_coefficients.csv)"
         size_d = g.size_m
     else:
         raise ValueError(f"unknown profile {g.profile!r}")
@@ -133,7 +166,8 @@ def section_for(geometry: ShaftGeometry, key=None) -> Section:
         key_w = g.key_width_m or (key.width_m if key else 0.0)
         key_d = g.key_depth_m or (key.shaft_depth_m if key else 0.0)
         area -= key_w * key_d
-        methods["keyseat"] = "nominal stress on the full diameter; keyseat by Kt/Kts (Shigley 9th ed., Table 7-1)"
+        methods["keyseat"] = ("nominal stress on the full diameter, keyseat by Kt/Kts (Shigley 9th ed., Table 7-1); "
+                              "twist on the plain round, as a keyseat runs only under the hub")
     return Section(
         geometry=g,
         area_m2=area,

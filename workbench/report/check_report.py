@@ -97,6 +97,13 @@ def render_check(result: dict, system: str = "metric") -> Group:
         )
     parts.append(summary)
     for shaft in result["shafts"]:
+        solved = shaft.get("keyseat_solver")
+        if solved:
+            parts.append(Text(
+                f"keyseat ({shaft['role']}): solver peak {fmt.stress(solved['peak_shear_stress_Pa'], system)}, "
+                f"Kts {solved['Kts_solver']:.2f} by the solver vs {solved['Kts_handbook']:.2f} handbook (checks use "
+                f"the handbook); J {solved['torsion_constant_ratio']:.0%} of the plain round — {solved['method']}"
+            ))
         for note in shaft.get("notes", []):
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
     parts.append(cautions_panel(result["cautions"]))
