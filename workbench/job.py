@@ -433,12 +433,18 @@ def stock_inputs(inputs: Mapping[str, str], profile: str, system: str = "metric"
         mats = [_material_for_size(key) for key in keys]
     except QuantityError as err:
         raise JobInputError(err.field, err.message) from None
+    from workbench.core.substitution import largest_journal_m
+
     keyed = bool(existing and existing.keyed)
     rows = check_stock(profile, system, mats, loads, mount, settings, keyed=keyed)
+    journal_needed = existing.size_m if existing and existing.profile in ("round", "tube") else None
     out_rows = []
     for row in rows:
         check = row.check
+        journal = largest_journal_m(row.geometry)
         out_rows.append({
+            "largest_journal_m": journal,
+            "gives_existing_journal": None if journal_needed is None else journal >= journal_needed - 1e-9,
             "label": row.stock.label + (" mm" if system == "metric" else " in"),
             "spec": format_spec(row.geometry, system),
             "size_m": row.geometry.size_m,

@@ -128,12 +128,16 @@ def render_substitution(result: dict, system: str = "metric") -> Group:
 def render_stock(result: dict, system: str = "metric") -> Group:
     """Stock sizes checked as the candidate, smallest first, with the smallest that passes."""
     table = Table(title=Text(f"{result['profile']} stock, {result['system']}"))
-    for name in ("size", "material", "verdict", "lowest SF", "governing", "mass"):
+    for name in ("size", "material", "verdict", "lowest SF", "governing", "mass", "journal"):
         table.add_column(name)
     for row in result["rows"]:
+        journal = fmt.length(row["largest_journal_m"], system)
+        if row["gives_existing_journal"] is False:
+            journal += " *"
         table.add_row(
             Text(row["label"]), row["material"], verdict_text(row["verdict"]),
             fmt.factor(row["min_safety_factor"]), row["governing"], fmt.mass_per_length(row["mass_kg_per_m"], system),
+            journal,
         )
     lines = Text()
     for key, best in result["smallest"].items():
@@ -142,4 +146,7 @@ def render_stock(result: dict, system: str = "metric") -> Group:
         lines.append("\n")
     if not result["smallest"]:
         lines.append("no stock size of this profile passes", style="bold red")
+    if any(row["gives_existing_journal"] is False for row in result["rows"]):
+        lines.append("\n* journal: the largest round a bar can be turned to is smaller than the existing "
+                     "shaft; such a bar suits square-bore hubs and bearings, or bearings of that bore.")
     return Group(table, lines, cautions_panel(result["cautions"]))
