@@ -1,7 +1,8 @@
 """``shaftbench log ...`` and the ``--save`` options of ``shaftbench check``.
 
 Only argparse is imported at start-up; the store, Rich and the job card load when a command runs.
-Every problem a person can cause ends as one line on stderr and exit code 2.
+Every problem a person can cause ends as one line on stderr and exit code 2; answering no to a
+question (``log purge``) changes nothing and exits with 1.
 """
 
 from __future__ import annotations
@@ -15,6 +16,8 @@ from typing import Any
 
 VERDICTS = ("pass", "marginal", "fail")
 EXIT_OK, EXIT_USAGE = 0, 2
+EXIT_DECLINED = 1
+"""A question was answered no (``log purge`` without ``--yes``): nothing was changed."""
 
 
 # --------------------------------------------------------------------------------------------
@@ -108,7 +111,11 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
     delete.add_argument("id", type=int, metavar="ID")
     restore = command("restore", "bring a job back from the bin", _cmd_restore)
     restore.add_argument("id", type=int, metavar="ID")
-    command("purge", "remove every job in the bin for good", _cmd_purge)
+    purge = command("purge", "remove every job in the bin for good (asks first)", _cmd_purge)
+    purge.add_argument(
+        "-y", "--yes", action="store_true",
+        help="do not ask; needed when input is not a terminal (scripts). Answering no exits with 1",
+    )
     return log
 
 
@@ -307,8 +314,32 @@ def _cmd_restore(args: argparse.Namespace) -> int:
     return EXIT_OK
 
 
+def _jobs(n: int) -> str:
+    return f"{n} job{'s' if n != 1 else ''}"
+
+
+def _confirmed(question: str) -> bool:
+    """Ask a yes/no question on the terminal (prompt on stderr); only y or yes is a yes."""
+    sys.stderr.write(f"{question} [y/N] ")
+    sys.stderr.flush()
+    answer = sys.stdin.readline()  # "" at end of input: no
+    return answer.strip().casefold() in ("y", "yes")
+
+
 def _cmd_purge(args: argparse.Namespace) -> int:
+    interactive = sys.stdin is not None and sys.stdin.isatty()
+    if not args.yes and not interactive:
+        return _fail("purge removes the jobs in the bin for good; add --yes to confirm "
+                     "(input is not a terminal)")
     with _open(args) as log:
+        if not args.yes:
+            in_bin = log.count(deleted=True)
+            if in_bin == 0:
+                print("the bin is empty: nothing to remove")
+                return EXIT_OK
+            if not _confirmed(f"Remove the {_jobs(in_bin)} in the bin for good? This cannot be undone."):
+                print("nothing removed")
+                return EXIT_DECLINED
         removed = log.purge()
-    print(f"removed {removed} job{'s' if removed != 1 else ''} from the bin for good")
+    print(f"removed {_jobs(removed)} from the bin for good")
     return EXIT_OK

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import argparse
+import io
 import json
 
 import pytest
@@ -95,10 +96,58 @@ def test_delete_restore_purge(filled, log_path, capsys):
     capsys.readouterr()
     assert run(["log", "restore", str(filled[1]), *base]) == 0
     assert run(["log", "delete", str(filled[1]), *base]) == 0
-    assert run(["log", "purge", *base]) == 0
+    assert run(["log", "purge", "--yes", *base]) == 0
     assert "removed 1 job" in capsys.readouterr().out
     with JobLog.open(log_path) as log:
         assert [r.id for r in log.search(deleted=None)] == [filled[0]]
+
+
+class _Terminal(io.StringIO):
+    """Typed answers on what looks like a terminal."""
+
+    def isatty(self) -> bool:
+        return True
+
+
+def _in_bin(log_path) -> int:
+    with JobLog.open(log_path) as log:
+        return log.count(deleted=True)
+
+
+def test_purge_without_yes_and_without_a_terminal_refuses(filled, log_path, capsys, monkeypatch):
+    monkeypatch.setattr("sys.stdin", io.StringIO("y\n"))  # piped input is not a confirmation
+    assert run(["log", "delete", str(filled[1]), "--log", str(log_path)]) == 0
+    capsys.readouterr()
+    assert run(["log", "purge", "--log", str(log_path)]) == 2
+    captured = capsys.readouterr()
+    err = captured.err.strip()
+    assert "--yes" in err and "\n" not in err and captured.out == ""
+    assert _in_bin(log_path) == 1
+
+
+@pytest.mark.parametrize("answer, code, removed", [
+    ("y\n", 0, True), ("YES\n", 0, True), ("n\n", 1, False), ("\n", 1, False), ("", 1, False),
+    ("yess\n", 1, False),
+])
+def test_purge_asks_on_a_terminal(filled, log_path, capsys, monkeypatch, answer, code, removed):
+    assert run(["log", "delete", str(filled[1]), "--log", str(log_path)]) == 0
+    capsys.readouterr()
+    monkeypatch.setattr("sys.stdin", _Terminal(answer))
+    assert run(["log", "purge", "--log", str(log_path)]) == code
+    captured = capsys.readouterr()
+    assert "Remove the 1 job in the bin for good?" in captured.err and "[y/N]" in captured.err
+    assert ("removed 1 job" in captured.out) is removed
+    assert ("nothing removed" in captured.out) is not removed
+    assert _in_bin(log_path) == (0 if removed else 1)
+
+
+def test_purge_of_an_empty_bin_does_not_ask(filled, log_path, capsys, monkeypatch):
+    monkeypatch.setattr("sys.stdin", _Terminal("y\n"))
+    assert run(["log", "purge", "--log", str(log_path)]) == 0
+    captured = capsys.readouterr()
+    assert "bin is empty" in captured.out and "[y/N]" not in captured.err
+    with JobLog.open(log_path) as log:
+        assert log.count() == 2
 
 
 @pytest.mark.parametrize("argv, words", [

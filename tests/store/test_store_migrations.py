@@ -1,13 +1,15 @@
-"""Schema versions: a v1 log is migrated forward keeping every row, with a backup beside it."""
+"""Schema versions: v1 and v2 logs are migrated forward keeping every row, with a backup beside them."""
 
 from __future__ import annotations
 
 import json
 import sqlite3
 
+import pytest
+
 from store_helpers import JOB_INPUTS, result_for
 
-from workbench.store import JobLog, schema
+from workbench.store import JobLog, migrations, schema
 from workbench.store.migrations import migrate, user_version
 
 
@@ -35,7 +37,7 @@ def test_a_v1_log_is_migrated_keeping_every_row(tmp_path):
     path = tmp_path / "jobs.sqlite3"
     rows = _v1_log(path, jobs=25)
     with JobLog.open(path) as log:
-        assert user_version(log.conn) == schema.LATEST_VERSION == 2
+        assert user_version(log.conn) == schema.LATEST_VERSION == 3
         records = sorted(log.search(limit=100), key=lambda r: r.id)
         assert len(records) == 25
         for record, row in zip(records, rows):
@@ -46,6 +48,7 @@ def test_a_v1_log_is_migrated_keeping_every_row(tmp_path):
         # the new search column was filled for the old rows (case-folded)
         assert [r.asset for r in log.search(text="tag [7]")] == ["Tag [7]"]
         assert log.count(text="SITE") == 25 and log.count(text="fitter") == 0  # "by" is not searched
+        assert [r.asset for r in log.search(text="site 13")] == ["Tag [13]"]  # through the v3 index
         assert log.integrity_ok()
     backup = tmp_path / "jobs.sqlite3.v1.bak"
     conn = sqlite3.connect(backup)
@@ -64,3 +67,68 @@ def test_a_new_log_goes_straight_to_the_latest_version_and_stays_there(tmp_path)
         assert {"fitted", "deleted_at", "search_text"} <= set(columns)
         assert log.count() == 1
     assert not (tmp_path / "jobs.sqlite3.v1.bak").exists()
+
+
+def _v2_log(path, jobs: int) -> list[tuple]:
+    """A log exactly as version 2 wrote it (search_text filled, some jobs in the bin)."""
+    conn = sqlite3.connect(path, isolation_level=None)
+    assert migrate(conn, target=2) == 2
+    rows = []
+    for i in range(jobs):
+        name = ("demo", "mixer", "overloaded")[i % 3]
+        result = result_for(name)
+        asset, location, note, material = f"Pump [{i}]", f"Bay {i}", f'say "{i}" NEAR *', "4140-qt425"
+        rows.append((
+            f"2024-0{1 + i % 9}-1{i % 10}T08:00:00.000000+00:00", "2024-10-01T00:00:00.000000+00:00", "0.1.0",
+            asset, location, "fitter", note, result["verdict"], material, f"fit {i}",
+            "2024-11-01T00:00:00.000000+00:00" if i % 5 == 0 else None,
+            json.dumps(JOB_INPUTS[name]), json.dumps(result),
+            schema.search_text(asset, location, note, material),
+        ))
+    conn.executemany(
+        "INSERT INTO jobs (created_at, updated_at, program_version, asset, location, by, note, verdict,"
+        " material, fitted, deleted_at, inputs_json, result_json, search_text)"
+        " VALUES (?,?,?,?,?,?,?,?,?,?,?,?,?,?)", rows)
+    conn.close()
+    return rows
+
+
+def test_a_v2_log_is_migrated_keeping_every_row_and_its_bin(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    rows = _v2_log(path, jobs=30)
+    with JobLog.open(path) as log:
+        assert user_version(log.conn) == 3
+        records = sorted(log.search(limit=100, deleted=None), key=lambda r: r.id)
+        assert len(records) == 30
+        for record, row in zip(records, rows):
+            assert (record.created_at, record.updated_at, record.program_version, record.asset,
+                    record.location, record.by, record.note, record.verdict, record.material,
+                    record.fitted, record.deleted_at) == row[:11]
+            assert record.inputs == json.loads(row[11]) and record.result == json.loads(row[12])
+        assert log.count() == 24 and log.count(deleted=True) == 6
+        # the index was filled from the old rows: substring, any case, bin kept apart
+        assert log.text_index is migrations.text_index_supported()
+        assert [r.asset for r in log.search(text="ump [17]")] == ["Pump [17]"]
+        assert log.count(text="PUMP") == 24 and log.count(text="pump", deleted=None) == 30
+        assert log.count(text='"1" near') == 1 and log.count(text="*", deleted=True) == 6
+        assert log.integrity_ok()
+    backup = tmp_path / "jobs.sqlite3.v2.bak"
+    conn = sqlite3.connect(backup)
+    assert conn.execute("PRAGMA user_version").fetchone()[0] == 2
+    assert conn.execute("SELECT count(*) FROM jobs").fetchone()[0] == 30
+    assert conn.execute("SELECT count(*) FROM sqlite_master WHERE name = 'jobs_text'").fetchone()[0] == 0
+    conn.close()
+
+
+def test_the_v3_index_holds_one_entry_per_job(tmp_path):
+    if not migrations.text_index_supported():
+        pytest.skip(f"SQLite {sqlite3.sqlite_version} has no FTS5 trigram tokenizer")
+    path = tmp_path / "jobs.sqlite3"
+    _v2_log(path, jobs=12)
+    with JobLog.open(path) as log:
+        names = {r[0] for r in log.conn.execute("SELECT name FROM sqlite_master")}
+        assert {schema.TEXT_INDEX, *schema.TEXT_TRIGGERS} <= names
+        indexed = log.conn.execute(
+            f"SELECT count(*) FROM {schema.TEXT_INDEX} WHERE {schema.TEXT_INDEX} MATCH '\"bay\"'"
+        ).fetchone()[0]
+        assert indexed == 12

@@ -3,7 +3,9 @@
 A job is the inputs exactly as typed plus the result of ``workbench.job.evaluate_inputs`` on them,
 with who/where/what notes. Every save is one durable transaction (WAL, ``synchronous=FULL``,
 ``BEGIN IMMEDIATE``); a file that is not ours, is damaged, or comes from a newer Shaftbench is refused
-with a one-line message and left exactly as it was.
+with a one-line message and left exactly as it was. Text filters use a trigram full-text index
+(schema v3, SQLite FTS5) where this SQLite has one, else LIKE over every row; both give the same
+answers.
 """
 
 from __future__ import annotations
@@ -280,6 +282,37 @@ def material_of(inputs: Mapping[str, str], result: Mapping[str, Any]) -> str:
     return ", ".join(unique)
 
 
+INDEX_LOOKUP_LIMIT = 2000
+"""Up to this many index matches, a text filter looks the matched jobs up by id; above it, scanning
+the covering listing index in order is cheaper (measured at 100,000 jobs, bench/bench_log.py)."""
+
+
+@dataclass(frozen=True)
+class _TextPlan:
+    """How a text filter will be answered."""
+
+    words: list[str]
+    """Case-folded words; each must appear in search_text."""
+    expression: str | None
+    """FTS5 query for the words the trigram index can find, or None (LIKE only)."""
+    matched: int | None
+    """How many jobs, bin included, the index matches, counted up to INDEX_LOOKUP_LIMIT + 1
+    (None without the index)."""
+    needs_like: bool
+    """True if some word is not in ``expression`` (shorter than three characters) - or no index."""
+
+
+def _verdicts(verdict: str | Iterable[str] | None) -> str | tuple[str, ...] | None:
+    """A verdict filter in a hashable form (an iterable is read once, into a tuple)."""
+    return verdict if verdict is None or isinstance(verdict, str) else tuple(verdict)
+
+
+def _match_phrase(word: str) -> str:
+    """A word as an FTS5 string: between double quotes, inner quotes doubled, so that ``*``, ``-``,
+    ``AND``, ``NEAR``, ``:`` and parentheses are plain characters (SQLite FTS5 query syntax, 3.1)."""
+    return '"' + word.replace('"', '""') + '"'
+
+
 def _like_pattern(word: str) -> str:
     escaped = word.replace("\\", "\\\\").replace("%", "\\%").replace("_", "\\_")
     return f"%{escaped}%"
@@ -337,9 +370,13 @@ class JobLog:
     ...     job_id = log.save(inputs, result, asset="CV-07")
     """
 
-    def __init__(self, conn: sqlite3.Connection, path: Path) -> None:
+    def __init__(self, conn: sqlite3.Connection, path: Path, *, text_index: bool = False) -> None:
         self._conn = conn
         self.path = path
+        self.text_index = text_index
+        """True if text filters use the trigram index (schema v3 with FTS5); False: LIKE over every row."""
+        self._match_count_cache: tuple[Any, int] | None = None
+        self._count_cache: tuple[Any, int] | None = None
 
     # -- opening and closing -------------------------------------------------------------
 
@@ -369,7 +406,7 @@ class JobLog:
         except sqlite3.Error as err:
             raise _friendly(err, path) from None
         try:
-            cls._prepare(conn, path)
+            text_index = cls._prepare(conn, path)
         except BaseException as err:
             conn.close()
             if created and path.exists() and path.stat().st_size == 0:
@@ -377,10 +414,10 @@ class JobLog:
             if isinstance(err, sqlite3.Error):
                 raise _friendly(err, path) from None
             raise
-        return cls(conn, path)
+        return cls(conn, path, text_index=text_index)
 
     @staticmethod
-    def _prepare(conn: sqlite3.Connection, path: Path) -> None:
+    def _prepare(conn: sqlite3.Connection, path: Path) -> bool:
         # Read-only probes first: nothing is written until the file is known to be ours.
         version = migrations.user_version(conn)
         app_id = int(conn.execute("PRAGMA application_id").fetchone()[0])
@@ -408,6 +445,7 @@ class JobLog:
         if 0 < version < schema.LATEST_VERSION:
             JobLog._backup_before_migrating(conn, path, version)
         migrations.migrate(conn)
+        return migrations.ensure_text_index(conn)
 
     @staticmethod
     def _backup_before_migrating(conn: sqlite3.Connection, path: Path, version: int) -> None:
@@ -626,18 +664,17 @@ class JobLog:
             raise LogError(f"there is no job {job_id} in the log")
         return _record(rows[0])
 
-    def _where(
-        self, text: str, verdict: str | Iterable[str] | None, since: Any, until: Any, deleted: bool | None
-    ) -> tuple[str, list[Any]]:
+    def _filters(
+        self, verdict: str | Iterable[str] | None, since: Any, until: Any, deleted: bool | None
+    ) -> tuple[list[str], list[Any], bool]:
+        """SQL clauses and parameters for every filter but the text; the flag says whether any
+        filter other than ``deleted`` is set."""
         clauses: list[str] = []
         params: list[Any] = []
         if deleted is False:
             clauses.append("deleted_at IS NULL")
         elif deleted is True:
             clauses.append("deleted_at IS NOT NULL")
-        for word in _text(text, "text").casefold().split():
-            clauses.append("search_text LIKE ? ESCAPE '\\'")  # measured faster than instr()
-            params.append(_like_pattern(word))
         if verdict:
             wanted = [verdict] if isinstance(verdict, str) else list(verdict)
             bad = [v for v in wanted if v not in VERDICTS]
@@ -652,7 +689,71 @@ class JobLog:
         if high:
             clauses.append("created_at < ?")
             params.append(high)
-        return (" WHERE " + " AND ".join(clauses) if clauses else ""), params
+        return clauses, params, bool(verdict or low or high)
+
+    def _text_plan(self, text: str, *, full_count: bool = False) -> _TextPlan:
+        """Split the filter text into words and, if the trigram index can serve it, count the
+        jobs (bin included) whose text holds every word of three or more characters: up to
+        INDEX_LOOKUP_LIMIT + 1, or all of them with ``full_count`` when every word is indexed."""
+        # NUL ends a LIKE pattern inside SQLite (the rest would be ignored), so it separates words.
+        words = _text(text, "text").replace("\x00", " ").casefold().split()
+        indexed = [w for w in words if len(w) >= schema.TEXT_INDEX_MIN_CHARS]
+        if not (self.text_index and indexed):
+            return _TextPlan(words, None, None, bool(words))
+        expression = " AND ".join(_match_phrase(w) for w in indexed)
+        every_word = len(indexed) == len(words)
+        cap = None if full_count and every_word else INDEX_LOOKUP_LIMIT + 1
+        matched = self._match_count(expression, cap=cap)
+        if matched is None:  # the index could not answer: LIKE alone
+            return _TextPlan(words, None, None, True)
+        return _TextPlan(words, expression, matched, not every_word)
+
+    def _match_count(self, expression: str, cap: int | None = None) -> int | None:
+        """How many jobs (bin included) the index matches, counting no further than ``cap`` if
+        given (the index stops early); None if the index cannot answer. The last full count is
+        kept until the log changes (this connection's changes or another's commit)."""
+        try:
+            state = (
+                expression,
+                self.conn.total_changes,
+                self.conn.execute("PRAGMA data_version").fetchone()[0],
+            )
+            cached = self._match_count_cache
+            if cached is not None and cached[0] == state:
+                return cached[1] if cap is None else min(cached[1], cap)
+            query = f"SELECT rowid FROM {schema.TEXT_INDEX} WHERE {schema.TEXT_INDEX} MATCH ?"
+            if cap is not None:
+                query += f" LIMIT {int(cap)}"
+            matched = int(self.conn.execute(f"SELECT count(*) FROM ({query})", (expression,)).fetchone()[0])
+        except sqlite3.OperationalError:
+            return None
+        if cap is None or matched < cap:
+            self._match_count_cache = (state, matched)
+        return matched
+
+    def _text_query(
+        self, plan: _TextPlan, clauses: list[str], params: list[Any]
+    ) -> tuple[str, str, list[Any]]:
+        """``(FROM ..., WHERE ..., params)`` selecting the jobs that pass every filter.
+
+        With the index and at most INDEX_LOOKUP_LIMIT matches, the matched ids drive the query
+        (row lookups by id); otherwise the covering index jobs_listing is scanned with LIKE, which
+        also stops early when a page fills up. Every word is always checked with LIKE as well, so the
+        result is exactly the LIKE semantics whichever way the rows were found.
+        """
+        clauses, params = list(clauses), list(params)
+        for word in plan.words:
+            clauses.append("search_text LIKE ? ESCAPE '\\'")  # measured faster than instr()
+            params.append(_like_pattern(word))
+        source = "jobs"
+        if plan.expression is not None and plan.matched is not None and plan.matched <= INDEX_LOOKUP_LIMIT:
+            source = "jobs NOT INDEXED"  # the integer primary key is still used for the id lookups
+            clauses.insert(
+                0, f"id IN (SELECT rowid FROM {schema.TEXT_INDEX} WHERE {schema.TEXT_INDEX} MATCH ?)"
+            )
+            params.insert(0, plan.expression)
+        where = " WHERE " + " AND ".join(clauses) if clauses else ""
+        return source, where, params
 
     def search(
         self,
@@ -665,14 +766,26 @@ class JobLog:
         deleted: bool | None = False,
     ) -> list[JobRecord]:
         """Jobs newest first. ``text``: every word must appear (any case) in asset, location, notes or
-        material; ``since``/``until``: UTC dates (inclusive) or times; ``deleted``: False = live jobs,
-        True = the bin, None = both."""
-        where, params = self._where(text, verdict, since, until, deleted)
+        material - as plain characters, whatever they mean to SQL, LIKE or FTS5 (words are split at
+        white space and NUL); ``since``/``until``: UTC dates (inclusive) or times; ``deleted``:
+        False = live jobs, True = the bin, None = both."""
+        verdict = _verdicts(verdict)
+        clauses, params, _ = self._filters(verdict, since, until, deleted)
         limit, offset = max(0, int(limit)), max(0, int(offset))
+        if limit == 0:
+            return []
+        cached = self._count_cache
+        if cached is not None:
+            if cached[0] == self._count_key(text, verdict, since, until, deleted) and offset >= cached[1]:
+                return []  # count() just found fewer jobs than this page starts at (none, typically)
+        plan = self._text_plan(text)
+        if plan.matched == 0:
+            return []
+        source, where, params = self._text_query(plan, clauses, params)
         ids = [
             row[0]
             for row in self._read(
-                f"SELECT id FROM jobs{where} ORDER BY created_at DESC, id DESC LIMIT ? OFFSET ?",
+                f"SELECT id FROM {source}{where} ORDER BY created_at DESC, id DESC LIMIT ? OFFSET ?",
                 [*params, limit, offset],
             )
         ]
@@ -692,9 +805,54 @@ class JobLog:
         until: date | datetime | str | None = None,
         deleted: bool | None = False,
     ) -> int:
-        """How many jobs ``search`` with the same filters would find in all."""
-        where, params = self._where(text, verdict, since, until, deleted)
-        return int(self._read(f"SELECT count(*) FROM jobs{where}", params)[0][0])
+        """How many jobs ``search`` with the same filters would find in all (always exact).
+
+        A text filter with many matches and no verdict or date filter is counted from the index:
+        all matches less those in the bin (the bin is counted with LIKE, it is small).
+        """
+        verdict = _verdicts(verdict)
+        key = self._count_key(text, verdict, since, until, deleted)
+        if key is not None and self._count_cache is not None and self._count_cache[0] == key:
+            return self._count_cache[1]
+        found = self._count(text, verdict, since, until, deleted)
+        self._count_cache = (key, found) if key is not None else None
+        return found
+
+    def _count_key(self, *filters: Any) -> tuple[Any, ...] | None:
+        """What a count depends on: the filters and the log's state (None if unhashable)."""
+        try:
+            hash(filters)
+        except TypeError:
+            return None
+        data_version = self._read("PRAGMA data_version")[0][0]
+        return (filters, self.conn.total_changes, data_version)
+
+    def _count(
+        self, text: str, verdict: str | Iterable[str] | None, since: Any, until: Any, deleted: bool | None
+    ) -> int:
+        clauses, params, narrowed = self._filters(verdict, since, until, deleted)
+        plan = self._text_plan(text, full_count=not narrowed and deleted is not True)
+        if plan.matched == 0:
+            return 0
+        if (
+            plan.expression is not None
+            and plan.matched is not None
+            and plan.matched > INDEX_LOOKUP_LIMIT
+            and not plan.needs_like
+            and not narrowed
+            and deleted is not True
+        ):
+            matched = self._match_count(plan.expression)
+            if matched is not None:
+                if deleted is None:
+                    return matched
+                _, where, bin_params = self._text_query(
+                    _TextPlan(plan.words, None, None, True), ["deleted_at IS NOT NULL"], []
+                )
+                in_bin = int(self._read(f"SELECT count(*) FROM jobs{where}", bin_params)[0][0])
+                return matched - in_bin
+        source, where, params = self._text_query(plan, clauses, params)
+        return int(self._read(f"SELECT count(*) FROM {source}{where}", params)[0][0])
 
     def iter_export_rows(self) -> Iterator[dict[str, Any]]:
         """Every job, bin included, oldest id first, as JSON-ready dicts (streamed)."""
@@ -726,9 +884,23 @@ class JobLog:
             return Reopened(record, None, (), error=str(err))
         return Reopened(record, new_result, compare_results(record.result, new_result, rel_tol))
 
+    def forget_counts(self) -> None:
+        """Drop the remembered counts (for timing; any change to the log makes them stale anyway)."""
+        self._match_count_cache = None
+        self._count_cache = None
+
     def integrity_ok(self) -> bool:
-        """True if SQLite's ``PRAGMA integrity_check`` finds nothing wrong (reads the whole file)."""
-        return self._read("PRAGMA integrity_check")[0][0] == "ok"
+        """True if SQLite's ``PRAGMA integrity_check`` finds nothing wrong (reads the whole file) and,
+        with the text index, FTS5's ``integrity-check`` finds the index itself sound (before SQLite
+        3.44 it does not compare the index with the jobs' text; the tests do that)."""
+        if self._read("PRAGMA integrity_check")[0][0] != "ok":
+            return False
+        if self.text_index:
+            try:
+                self.conn.execute(schema.TEXT_INDEX_CHECK)
+            except sqlite3.DatabaseError:
+                return False
+        return True
 
 
 _COLUMNS = ", ".join(schema.JOB_COLUMNS)

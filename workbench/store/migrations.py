@@ -24,7 +24,14 @@ def _v1_to_v2(conn: sqlite3.Connection) -> None:
     )
 
 
-STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {1: _create_v1, 2: _v1_to_v2}
+def _v2_to_v3(conn: sqlite3.Connection) -> None:
+    # Without FTS5/trigram the log still becomes v3 (no table changes are needed for LIKE); the
+    # index is built by ensure_text_index the first time a capable SQLite opens the file.
+    if text_index_supported():
+        _build_text_index(conn)
+
+
+STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3}
 """STEPS[n] brings a log from version n - 1 to version n."""
 
 
@@ -54,3 +61,77 @@ def migrate(conn: sqlite3.Connection, target: int = schema.LATEST_VERSION) -> in
         except BaseException:
             conn.execute("ROLLBACK")
             raise
+
+
+# --------------------------------------------------------------------------------------------
+# the trigram text index (schema v3)
+
+_trigram_available: bool | None = None
+
+
+def text_index_supported() -> bool:
+    """True if this Python's SQLite has FTS5 with the trigram tokenizer (SQLite >= 3.34).
+
+    Probed once per process on a private in-memory database, so the log file is never touched.
+    """
+    global _trigram_available
+    if _trigram_available is None:
+        probe = sqlite3.connect(":memory:")
+        try:
+            probe.execute("CREATE VIRTUAL TABLE probe USING fts5(x, tokenize='trigram')")
+            _trigram_available = True
+        except sqlite3.Error:
+            _trigram_available = False
+        finally:
+            probe.close()
+    return _trigram_available
+
+
+def _text_index_parts(conn: sqlite3.Connection) -> set[str]:
+    names = (schema.TEXT_INDEX, *schema.TEXT_TRIGGERS)
+    rows = conn.execute(
+        f"SELECT name FROM sqlite_master WHERE name IN ({', '.join('?' * len(names))})", names
+    ).fetchall()
+    return {name for (name,) in rows}
+
+
+def _build_text_index(conn: sqlite3.Connection) -> None:
+    """(Re)create the index and its triggers and fill it from jobs.search_text (caller's transaction)."""
+    for trigger in schema.TEXT_TRIGGERS:
+        conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
+    conn.execute(f"DROP TABLE IF EXISTS {schema.TEXT_INDEX}")
+    conn.execute(schema.TEXT_INDEX_CREATE)
+    for statement in schema.TEXT_INDEX_TRIGGERS:
+        conn.execute(statement)
+    conn.execute(schema.TEXT_INDEX_REBUILD)
+
+
+def ensure_text_index(conn: sqlite3.Connection) -> bool:
+    """Make the text index of a v3 log usable if this SQLite can; returns True if it is.
+
+    The index counts as current only while all three triggers exist. If this SQLite lacks FTS5 or
+    the trigram tokenizer, the triggers are dropped (so that saving still works here) and searching
+    falls back to LIKE; the next capable SQLite finds the triggers missing and rebuilds the index
+    from ``jobs.search_text`` in one transaction (about a second per 100,000 jobs).
+    ``conn`` must be in autocommit mode, as for ``migrate``.
+    """
+    wanted = {schema.TEXT_INDEX, *schema.TEXT_TRIGGERS}
+    supported = text_index_supported()
+    parts = _text_index_parts(conn)
+    if supported and parts == wanted:
+        return True
+    if not supported and not parts & set(schema.TEXT_TRIGGERS):
+        return False
+    conn.execute("BEGIN IMMEDIATE")
+    try:
+        parts = _text_index_parts(conn)
+        if supported and parts != wanted:
+            _build_text_index(conn)
+        elif not supported:
+            for trigger in schema.TEXT_TRIGGERS:
+                conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
+        conn.execute("COMMIT")
+    except BaseException:
+        conn.execute("ROLLBACK")
+        raise
+    return supported

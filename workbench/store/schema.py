@@ -7,7 +7,7 @@ that another program's SQLite file is never taken for a job log.
 from __future__ import annotations
 
 APPLICATION_ID = 0x53424A4C  # "SBJL": Shaftbench job log
-LATEST_VERSION = 2
+LATEST_VERSION = 3
 
 # Version 1: one row per job; inputs and result as JSON text.
 V1 = (
@@ -40,6 +40,41 @@ V1_TO_V2 = (
     # search_text is filled by the migration code (Python casefold, not SQL lower()).
     "CREATE INDEX jobs_listing ON jobs(deleted_at, created_at, id, verdict, search_text)",
 )
+
+# Version 3: a trigram full-text index over search_text, so that a text filter reads a few index
+# pages instead of every row. It is an FTS5 "external content" table: it stores only the index and
+# reads the text from jobs.search_text; three triggers keep it in step with every insert, update and
+# delete (save, update, delete, restore, purge, import and any older code path alike), inside the
+# same transaction. SQLite builds without FTS5 or its trigram tokenizer (added in SQLite 3.34) reach
+# version 3 without the index and filter with LIKE; see migrations.ensure_text_index.
+TEXT_INDEX = "jobs_text"
+TEXT_TRIGGERS = ("jobs_text_insert", "jobs_text_delete", "jobs_text_update")
+TEXT_INDEX_CREATE = (
+    f"CREATE VIRTUAL TABLE {TEXT_INDEX} USING fts5("
+    "search_text, content='jobs', content_rowid='id', tokenize='trigram')"
+)
+TEXT_INDEX_TRIGGERS = (
+    f"""
+    CREATE TRIGGER {TEXT_TRIGGERS[0]} AFTER INSERT ON jobs BEGIN
+        INSERT INTO {TEXT_INDEX}(rowid, search_text) VALUES (new.id, new.search_text);
+    END
+    """,
+    f"""
+    CREATE TRIGGER {TEXT_TRIGGERS[1]} AFTER DELETE ON jobs BEGIN
+        INSERT INTO {TEXT_INDEX}({TEXT_INDEX}, rowid, search_text) VALUES ('delete', old.id, old.search_text);
+    END
+    """,
+    f"""
+    CREATE TRIGGER {TEXT_TRIGGERS[2]} AFTER UPDATE OF id, search_text ON jobs BEGIN
+        INSERT INTO {TEXT_INDEX}({TEXT_INDEX}, rowid, search_text) VALUES ('delete', old.id, old.search_text);
+        INSERT INTO {TEXT_INDEX}(rowid, search_text) VALUES (new.id, new.search_text);
+    END
+    """,
+)
+TEXT_INDEX_REBUILD = f"INSERT INTO {TEXT_INDEX}({TEXT_INDEX}) VALUES ('rebuild')"
+TEXT_INDEX_CHECK = f"INSERT INTO {TEXT_INDEX}({TEXT_INDEX}) VALUES ('integrity-check')"
+TEXT_INDEX_MIN_CHARS = 3
+"""A trigram index finds words of three characters or more; shorter words are matched with LIKE."""
 
 JOB_COLUMNS = (
     "id", "created_at", "updated_at", "program_version", "asset", "location", "by", "note",
