@@ -1,0 +1,203 @@
+"""The Shaftbench workbench application and its entry point :func:`run`."""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any
+
+from textual.app import App
+from textual.binding import Binding
+
+from .screens.job import JobScreen
+
+
+def _workbench_commands():
+    """The palette provider, imported when the palette first opens (keeps start-up light)."""
+    from .commands import WorkbenchCommands
+
+    return WorkbenchCommands
+
+
+class ShaftbenchApp(App):
+    """Keyboard-driven workbench: job sheet, verdict, and the views pushed over it by F-keys."""
+
+    CSS_PATH = Path(__file__).with_name("app.tcss")  # absolute: subclasses elsewhere find it too
+    TITLE = "Shaftbench"
+    COMMANDS = App.COMMANDS | {_workbench_commands}
+    ENABLE_COMMAND_PALETTE = True
+
+    BINDINGS = [
+        Binding("f1", "help", "Help", id="app.help", tooltip="Keys, what each check means, cautions"),
+        Binding("f2", "section", "Section", id="app.section", tooltip="Cross-sections with shear"),
+        Binding("f3", "substitute", "Swap", id="app.substitute", tooltip="Equal-strength sizes"),
+        Binding("f4", "stock", "Stock", id="app.stock", tooltip="Standard sizes that pass"),
+        Binding("f5", "units", "Units", id="app.units", tooltip="Metric / inch display"),
+        Binding("f6", "save", "Save", id="app.save", tooltip="Save the job to the job log"),
+        Binding("f7", "review", "Log", id="app.review", tooltip="Open the job log"),
+        Binding("ctrl+q", "quit", "Quit", id="app.quit", priority=True),
+    ]
+
+    def __init__(
+        self,
+        *,
+        demo: bool = False,
+        log_path: str | None = None,
+        initial_inputs: dict[str, str] | None = None,
+    ) -> None:
+        super().__init__()
+        self.demo = demo
+        self.log_path = log_path
+        self.system = "metric"
+        self.initial_inputs = initial_inputs
+        self.meta: dict[str, str] = {}
+
+    def get_default_screen(self) -> JobScreen:
+        """The job sheet is the bottom screen: one screen to compose before the first frame."""
+        self._job_screen = JobScreen()
+        return self._job_screen
+
+    def on_mount(self) -> None:
+        self.call_after_refresh(self._after_first_paint)
+
+    def _after_first_paint(self) -> None:
+        inputs = self.initial_inputs
+        if self.demo and inputs is None:
+            from workbench.demo import DEMO_META, demo_inputs
+
+            inputs = demo_inputs()
+            self.meta = dict(DEMO_META)
+        if inputs:
+            self.job_screen.sheet.load_inputs(inputs)
+        self._load_materials()
+
+    def _load_materials(self) -> None:
+        def work() -> list[str]:
+            from . import engine
+
+            return engine.material_keys()
+
+        def done(keys: list[str]) -> None:
+            self.job_screen.sheet.set_material_suggestions(keys)
+            self.material_keys = keys
+
+        self.material_keys: list[str] = []
+        self.run_worker(lambda: self.call_from_thread(done, work()), thread=True, group="materials")
+
+    @property
+    def job_screen(self) -> JobScreen:
+        """The job sheet screen (always at the bottom of the stack)."""
+        return self._job_screen
+
+    def inputs(self) -> dict[str, str]:
+        """The job as typed on the sheet."""
+        return self.job_screen.sheet.inputs()
+
+    # -- actions -------------------------------------------------------------------------------
+    def _on_job_screen(self) -> bool:
+        return isinstance(self.screen, JobScreen)
+
+    def action_help(self) -> None:
+        """Show keys, what each check means, and the safety cautions."""
+        from .screens.help import HelpScreen
+
+        self.push_screen(HelpScreen(self.job_screen.evaluation))
+
+    def action_section(self) -> None:
+        """Draw both cross-sections with the shear stress shaded."""
+        from .screens.section import SectionScreen
+
+        self.push_screen(SectionScreen(self.inputs()))
+
+    def action_substitute(self) -> None:
+        """Equal-strength and equal-stiffness sizes in the other profiles."""
+        from .screens.substitute import SubstituteScreen
+
+        self.push_screen(SubstituteScreen(self.inputs()))
+
+    def action_stock(self) -> None:
+        """Find standard bar sizes that pass; take one as the candidate."""
+        from .screens.stock import StockScreen
+
+        sheet = self.job_screen.sheet
+        self.push_screen(
+            StockScreen(
+                self.inputs(),
+                profile=sheet.value("candidate_profile"),
+                system=self.system,
+                material=sheet.value("candidate_material") or sheet.value("material") or "1045-cd",
+            ),
+            self._take_candidate,
+        )
+
+    def _take_candidate(self, choice: dict[str, str] | None) -> None:
+        if not choice:
+            return
+        self.job_screen.sheet.set_candidate(choice["spec"], choice.get("material", ""))
+        self.notify(f"Candidate set: {choice['spec']} {choice.get('material', '')}".strip())
+
+    def action_units(self) -> None:
+        """Toggle the display between metric and inch (inputs accept either)."""
+        self.system = "inch" if self.system == "metric" else "metric"
+        screen = self.job_screen
+        screen.panel.set_system(self.system)
+        screen.update_title()
+        if hasattr(self.screen, "set_system"):
+            self.screen.set_system(self.system)
+
+    def action_save(self) -> None:
+        """Save the job (inputs, result, asset, location, by, note) to the job log."""
+        from .screens.save import SaveScreen
+
+        result = self.job_screen.result
+        if result is None:
+            self.notify("Nothing to save yet: the sheet has no current result.", severity="warning")
+            return
+        self.push_screen(SaveScreen(self.inputs(), result, self.meta, self.log_path), self._saved)
+
+    def _saved(self, outcome: dict[str, Any] | None) -> None:
+        if outcome:
+            self.meta = {k: outcome[k] for k in ("asset", "location", "by", "note") if k in outcome}
+
+    def action_review(self) -> None:
+        """Open the job log; reopen or duplicate a saved job."""
+        try:
+            from .screens.review import ReviewScreen
+        except ImportError as err:
+            self.notify(f"Job log view not available ({err}).", severity="warning")
+            return
+        try:
+            screen = ReviewScreen(log_path=self.log_path)
+        except TypeError:
+            screen = ReviewScreen(self.log_path)
+        self.push_screen(screen, self._reviewed)
+
+    def _reviewed(self, choice: dict[str, Any] | None) -> None:
+        if not choice or "inputs" not in choice:
+            return
+        self.job_screen.sheet.load_inputs({k: str(v) for k, v in choice["inputs"].items()})
+        job_id = choice.get("job_id", "?")
+        if choice.get("action") == "duplicate":
+            self.meta = {}
+            self.notify(f"Copy of job {job_id} on the sheet; saving makes a new entry.")
+        else:
+            self.notify(f"Job {job_id} reopened.")
+
+    def action_load_demo(self) -> None:
+        """Put the demo job on the sheet."""
+        from workbench.demo import DEMO_META, demo_inputs
+
+        self.meta = dict(DEMO_META)
+        self.job_screen.sheet.load_inputs(demo_inputs())
+
+    def action_clear_sheet(self) -> None:
+        """Empty every field of the sheet."""
+        self.meta = {}
+        self.job_screen.sheet.load_inputs({})
+        self.job_screen.query_one("#power").focus()
+
+
+def run(*, demo: bool = False, log_path: str | None = None) -> int:
+    """Open the workbench (on the demo job with ``demo``); returns the process exit code."""
+    app = ShaftbenchApp(demo=demo, log_path=log_path)
+    app.run()
+    return app.return_code or 0

@@ -1,0 +1,196 @@
+"""The job sheet's fields, in the order the job goes, and the shaft-spec builder.
+
+Each field is typed as text (the job contract takes strings exactly as typed) or picked from a
+short list. A shaft is entered as profile + size (+ bore/thickness) + keyseat + finish and turned
+into a spec string such as ``round 40mm keyed``; typing a whole spec into the size field also works.
+"""
+
+from __future__ import annotations
+
+import re
+from dataclasses import dataclass, field
+
+MOUNTS = ("coupling", "vbelt", "flat-belt", "sprocket", "timing-belt", "gear")
+PROFILES = ("round", "tube", "square", "flat", "hex")
+KEYSEATS = ("plain", "keyed")
+FINISHES = ("machined", "ground", "cold-drawn", "hot-rolled", "forged")
+CRITERIA = ("goodman", "gerber", "asme-elliptic", "soderberg")
+
+
+@dataclass(frozen=True)
+class FieldSpec:
+    """One row of the job sheet: the contract key it fills, its label, hint and kind."""
+
+    key: str
+    label: str
+    hint: str = ""
+    placeholder: str = ""
+    choices: tuple[str, ...] = ()
+    section: str = ""
+
+
+@dataclass(frozen=True)
+class SectionSpec:
+    """A block of the job sheet, read top to bottom."""
+
+    id: str
+    title: str
+    fields: tuple[FieldSpec, ...] = field(default_factory=tuple)
+
+
+def _shaft_fields(prefix: str, material_key: str, material_placeholder: str) -> tuple[FieldSpec, ...]:
+    return (
+        FieldSpec(f"{prefix}_profile", "Profile", "r t s f h", choices=PROFILES),
+        FieldSpec(f"{prefix}_size", "Size", "dia., bare = mm", placeholder="e.g. 40"),
+        FieldSpec(f"{prefix}_second", "Bore", "bare = mm", placeholder="inside dia."),
+        FieldSpec(f"{prefix}_keyseat", "Keyseat", "k = keyed, p = plain", choices=KEYSEATS),
+        FieldSpec(f"{prefix}_finish", "Finish", "m g c h f", choices=FINISHES),
+        FieldSpec(material_key, "Material", "→ accepts", placeholder=material_placeholder),
+    )
+
+
+SECTIONS: tuple[SectionSpec, ...] = (
+    SectionSpec(
+        "drive",
+        "1 Drive (motor nameplate)",
+        (
+            FieldSpec("power", "Power", "kW, hp · bare = kW", placeholder="e.g. 7.5 kW"),
+            FieldSpec("speed", "Speed", "rpm, Hz · bare = rpm", placeholder="e.g. 1460"),
+            FieldSpec("ratio", "Ratio", "motor ÷ shaft speed", placeholder="1"),
+            FieldSpec("efficiency", "Efficiency", "0.95 or 95%", placeholder="1"),
+            FieldSpec("service_factor", "Service factor", "duty of the machine", placeholder="1"),
+            FieldSpec("peak_factor", "Start torque ×", "× running torque", placeholder="2"),
+            FieldSpec("torque", "or Torque", "instead of power+speed", placeholder="N·m, lbf·in"),
+        ),
+    ),
+    SectionSpec(
+        "mount",
+        "2 What is mounted",
+        (
+            FieldSpec("mount", "Element", "c v f s t g", choices=MOUNTS),
+            FieldSpec("pitch_diameter", "Pitch dia.", "bare = mm", placeholder="e.g. 200"),
+            FieldSpec("overhang", "Overhang", "bearing → load line", placeholder="e.g. 60"),
+        ),
+    ),
+    SectionSpec("shaft", "3 Shaft as found", _shaft_fields("shaft", "material", "1045-cd")),
+    SectionSpec(
+        "candidate", "4 Candidate", _shaft_fields("candidate", "candidate_material", "as found")
+    ),
+    SectionSpec(
+        "settings",
+        "5 Check settings",
+        (
+            FieldSpec("required_sf", "Required SF", "for the verdict", placeholder="1.5"),
+            FieldSpec("criterion", "Fatigue rule", "g e a s", choices=CRITERIA),
+            FieldSpec("reliability", "Reliability", "0.5 … 0.9999", placeholder="0.9"),
+            FieldSpec("twist_limit", "Twist limit", "e.g. 0.25 deg/m", placeholder="1° / 20 d"),
+        ),
+    ),
+)
+
+ALL_FIELDS: tuple[FieldSpec, ...] = tuple(f for s in SECTIONS for f in s.fields)
+FIELD_BY_KEY = {f.key: f for f in ALL_FIELDS}
+
+#: contract keys that the sheet does not hold as one widget, and the widget that shows their error
+ERROR_TARGET = {"shaft": "shaft_size", "candidate": "candidate_size"}
+
+#: choice fields whose first entry is the contract default: left out of the inputs when unchanged
+CHOICE_DEFAULTS = {"mount": "coupling", "criterion": "goodman"}
+
+SECOND_LABEL = {"tube": "Bore", "flat": "Thickness"}
+SIZE_HINT = {
+    "round": "dia., bare = mm",
+    "tube": "outside dia., bare = mm",
+    "square": "side, bare = mm",
+    "flat": "width, bare = mm",
+    "hex": "across flats, bare = mm",
+}
+
+_BARE_NUMBER = re.compile(r"^\s*\d+(?:\.\d*)?\s*$|^\s*\.\d+\s*$")
+_SPEC_START = re.compile(r"^\s*(round|tube|square|flat|hex)\b", re.IGNORECASE)
+
+
+def with_mm(size: str) -> str:
+    """A size as typed, with ``mm`` added when it is a bare number (bare sizes are millimetres)."""
+    size = size.strip()
+    return f"{size}mm" if _BARE_NUMBER.match(size) else size
+
+
+def is_full_spec(text: str) -> bool:
+    """True when a size field holds a whole spec (it starts with a profile word)."""
+    return bool(_SPEC_START.match(text))
+
+
+def compose_spec(profile: str, size: str, second: str, keyseat: str, finish: str) -> str:
+    """The spec string for a shaft from its sheet fields; "" when no size is given.
+
+    >>> compose_spec("round", "40", "", "keyed", "machined")
+    'round 40mm keyed'
+    >>> compose_spec("flat", "50", "20", "plain", "ground")
+    'flat 50mm x 20mm ground'
+    """
+    size = size.strip()
+    if not size:
+        return ""
+    if is_full_spec(size):
+        return size
+    if profile == "tube":
+        body = f"tube {with_mm(size)}/{with_mm(second)}" if second.strip() else f"tube {with_mm(size)}"
+    elif profile == "flat":
+        body = f"flat {with_mm(size)} x {with_mm(second)}" if second.strip() else f"flat {with_mm(size)}"
+    else:
+        body = f"{profile} {with_mm(size)}"
+    words = [body]
+    if keyseat == "keyed" and profile in ("round", "tube"):
+        words.append("keyed")
+    if finish and finish != "machined":
+        words.append(finish)
+    return " ".join(words)
+
+
+def _strip_mm(size: str) -> str:
+    size = size.strip()
+    if size.endswith("mm") and _BARE_NUMBER.match(size[:-2]):
+        return size[:-2].strip()
+    return size
+
+
+def split_spec(spec: str) -> dict[str, str] | None:
+    """The sheet fields for a spec string, or None when it is not simple enough to split.
+
+    >>> split_spec("square 40mm")["size"]
+    '40'
+    >>> split_spec('round 1 1/4" keyed')["size"]
+    '1 1/4"'
+    """
+    match = _SPEC_START.match(spec or "")
+    if not match:
+        return None
+    profile = match.group(1).lower()
+    tokens = spec[match.end():].split()
+    keyseat, finish = "plain", "machined"
+    while tokens and (tokens[-1] == "keyed" or tokens[-1] in FINISHES):
+        word = tokens.pop()
+        if word == "keyed":
+            keyseat = "keyed"
+        else:
+            finish = word
+    if not tokens or any(re.fullmatch(r"[a-z-]+", t, re.IGNORECASE) and t != "x" for t in tokens):
+        return None  # a shoulder or another word the sheet has no field for: keep the spec whole
+    size_text, second = " ".join(tokens), ""
+    if profile == "tube":
+        if size_text.count("/") != 1 and not re.fullmatch(r"\S+mm\s*/\s*\S+mm", size_text):
+            return None
+        size_text, second = (p.strip() for p in size_text.split("/", 1)) if size_text.count("/") == 1 else (size_text, "")
+    elif profile == "flat":
+        parts = re.split(r"\s*x\s*", size_text)
+        if len(parts) != 2:
+            return None
+        size_text, second = parts
+    return {
+        "profile": profile,
+        "size": _strip_mm(size_text),
+        "second": _strip_mm(second),
+        "keyseat": keyseat,
+        "finish": finish,
+    }

@@ -1,0 +1,126 @@
+"""The main screen: the job sheet on the left, the verdict panel on the right."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from textual import work
+from textual.app import ComposeResult
+from textual.containers import Horizontal
+from textual.screen import Screen
+from textual.widgets import Footer, Static
+from textual.worker import get_current_worker
+
+from .. import engine
+from ..messages import EvaluationReady, SheetChanged
+from ..widgets.job_sheet import JobSheet
+from ..widgets.verdict_panel import VerdictPanel
+
+NARROW_BELOW = 100
+
+
+class JobScreen(Screen):
+    """Sheet + verdict; recomputes in a worker a moment after each edit."""
+
+    def __init__(self) -> None:
+        super().__init__(id="job")
+        self.generation = 0
+        self.evaluation: engine.Evaluation | None = None
+        self.last_inputs: dict[str, str] = {}
+        self.wrong: dict[str, str] = {}
+        self.needed: dict[str, str] = {}
+
+    def compose(self) -> ComposeResult:
+        yield Static("", id="title-bar")
+        with Horizontal(id="job-body"):
+            yield JobSheet(id="sheet")
+            yield VerdictPanel(id="verdict")
+        yield Footer(compact=True)
+
+    @property
+    def sheet(self) -> JobSheet:
+        return self.query_one(JobSheet)
+
+    @property
+    def panel(self) -> VerdictPanel:
+        return self.query_one(VerdictPanel)
+
+    def on_mount(self) -> None:
+        self.update_title()
+        self.query_one("#power").focus()
+
+    def on_resize(self, event) -> None:
+        self.set_class(event.size.width < NARROW_BELOW, "-narrow")
+
+    def update_title(self) -> None:
+        app = self.app
+        system = getattr(app, "system", "metric")
+        state = "no result yet"
+        if self.evaluation is not None:
+            if self.evaluation.missing:
+                state = "calculation not available"
+            elif self.wrong:
+                n = len(self.wrong)
+                state = f"✗ {n} field{'s' if n > 1 else ''} to fix"
+            elif self.needed:
+                state = "… needs " + ", ".join(sorted(self.needed))
+            elif self.evaluation.result is not None:
+                state = "✓ up to date"
+        self.query_one("#title-bar", Static).update(
+            f" Shaftbench · {state} · {system} · Enter next field · PgDn next part"
+        )
+
+    # -- evaluation ----------------------------------------------------------------------------
+    def on_sheet_changed(self, message: SheetChanged) -> None:
+        self.request_evaluation(message.inputs)
+
+    def request_evaluation(self, inputs: dict[str, str]) -> None:
+        """Evaluate ``inputs`` in a worker; only the newest request's answer is shown."""
+        self.generation += 1
+        self.last_inputs = dict(inputs)
+        self._evaluate(dict(inputs), self.generation)
+
+    @work(thread=True, exclusive=True, group="evaluate")
+    def _evaluate(self, inputs: dict[str, str], generation: int) -> None:
+        evaluation = engine.evaluate(inputs) if inputs else engine.Evaluation()
+        if not get_current_worker().is_cancelled:
+            self.post_message(EvaluationReady(evaluation, generation))
+
+    def on_evaluation_ready(self, message: EvaluationReady) -> None:
+        if message.generation != self.generation:
+            return
+        self.apply_evaluation(message.evaluation)
+
+    def apply_evaluation(self, evaluation: engine.Evaluation) -> None:
+        """Show an evaluation: fresh result, or errors in place with the last good result dimmed.
+
+        An error about a field that is still empty is not the fitter's mistake yet: it is listed
+        as "still needed" on the panel, and only fields that hold text are marked red.
+        """
+        self.evaluation = evaluation
+        typed = set(self.last_inputs)
+        wrong = {k: m for k, m in evaluation.errors.items() if k in typed}
+        needed = {k: m for k, m in evaluation.errors.items() if k not in typed}
+        self.wrong, self.needed = wrong, needed
+        self.sheet.show_errors(wrong)
+        system = getattr(self.app, "system", "metric")
+        dimmed = " (last good result shown dimmed)" if self.panel.result is not None else ""
+        if evaluation.missing:
+            self.panel.mark_stale(f"✗ {evaluation.missing}")
+        elif wrong:
+            self.panel.mark_stale(f"✗ not current — fix: {', '.join(sorted(wrong))}{dimmed}")
+        elif needed:
+            first = next(iter(needed.values()))
+            self.panel.mark_stale(f"… still needed: {', '.join(sorted(needed))}{dimmed}\n  {first}")
+        elif evaluation.result is not None:
+            self.panel.show(evaluation.result, system)
+        else:
+            self.panel.show(None, system)
+        self.update_title()
+
+    @property
+    def result(self) -> dict[str, Any] | None:
+        """The current result, only when it matches the sheet."""
+        if self.evaluation is not None and self.evaluation.ok:
+            return self.evaluation.result
+        return None

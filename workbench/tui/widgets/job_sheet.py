@@ -1,0 +1,199 @@
+"""The job sheet: every field of the job, top to bottom in the order the work goes."""
+
+from __future__ import annotations
+
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import VerticalScroll
+from textual.css.query import NoMatches
+from textual.timer import Timer
+from textual.widgets import Input, Static
+
+from ..fields import (
+    CHOICE_DEFAULTS,
+    ERROR_TARGET,
+    FIELD_BY_KEY,
+    SECOND_LABEL,
+    SECTIONS,
+    SIZE_HINT,
+    compose_spec,
+    is_full_spec,
+    split_spec,
+)
+from ..messages import SheetChanged
+from .choice import Choice
+from .field_row import FieldRow
+
+DEBOUNCE_S = 0.12
+SHAFT_PREFIXES = ("shaft", "candidate")
+_SHAFT_PARTS = ("profile", "size", "second", "keyseat", "finish")
+
+
+class JobSheet(VerticalScroll):
+    """The form. Posts :class:`SheetChanged` (debounced) whenever what is typed changes."""
+
+    BINDINGS = [
+        Binding("pagedown", "section(1)", "Next part", show=False, id="sheet.next_section"),
+        Binding("pageup", "section(-1)", "Prev part", show=False, id="sheet.prev_section"),
+    ]
+
+    def __init__(self, **kwargs) -> None:
+        super().__init__(**kwargs)
+        self._timer: Timer | None = None
+        self._loading = False
+        self._shown_errors: dict[str, str] = {}
+
+    def compose(self) -> ComposeResult:
+        for section in SECTIONS:
+            yield Static(section.title, classes="section-title", id=f"title-{section.id}")
+            for spec in section.fields:
+                yield FieldRow(spec)
+            if section.id in SHAFT_PREFIXES:
+                yield Static("", classes="spec-line", id=f"spec-{section.id}")
+
+    def on_mount(self) -> None:
+        for prefix in SHAFT_PREFIXES:
+            self._apply_profile(prefix)
+
+    # -- reading -------------------------------------------------------------------------------
+    def row(self, key: str) -> FieldRow:
+        """The row of a sheet field."""
+        return self.query_one(f"#row-{key}", FieldRow)
+
+    def value(self, key: str) -> str:
+        """What is in a sheet field."""
+        return self.row(key).value
+
+    def shaft_spec(self, prefix: str) -> str:
+        """The spec string built from a shaft block ("" when no size is typed)."""
+        parts = [self.value(f"{prefix}_{part}") for part in _SHAFT_PARTS]
+        return compose_spec(*parts)
+
+    def inputs(self) -> dict[str, str]:
+        """The contract dict: only fields that hold something, strings exactly as typed."""
+        out: dict[str, str] = {}
+        for key, spec in FIELD_BY_KEY.items():
+            if key.startswith(SHAFT_PREFIXES) and key.split("_", 1)[1] in _SHAFT_PARTS:
+                continue
+            text = self.value(key)
+            if not text or CHOICE_DEFAULTS.get(key) == text:
+                continue
+            out[key] = text
+        for prefix in SHAFT_PREFIXES:
+            spec = self.shaft_spec(prefix)
+            if spec:
+                out[prefix] = spec
+        return out
+
+    # -- writing -------------------------------------------------------------------------------
+    def load_inputs(self, inputs: dict[str, str]) -> None:
+        """Fill the sheet from a contract dict (demo job, a reopened log entry); clears the rest."""
+        self._loading = True
+        try:
+            for key, spec in FIELD_BY_KEY.items():
+                if key.startswith(SHAFT_PREFIXES) and key.split("_", 1)[1] in _SHAFT_PARTS:
+                    continue
+                self.row(key).set_value(inputs.get(key, spec.choices[0] if spec.choices else ""))
+            for prefix in SHAFT_PREFIXES:
+                self.set_shaft(prefix, inputs.get(prefix, ""))
+        finally:
+            self._loading = False
+        self._schedule()
+
+    def set_shaft(self, prefix: str, spec: str) -> None:
+        """Fill a shaft block from a spec string; a spec the fields cannot hold goes whole into Size."""
+        parts = split_spec(spec) if spec else None
+        if parts is None:
+            parts = {"profile": self.value(f"{prefix}_profile"), "size": spec, "second": ""}
+            parts.update(keyseat="plain", finish="machined")
+        for part in _SHAFT_PARTS:
+            self.row(f"{prefix}_{part}").set_value(parts[part])
+        self._apply_profile(prefix)
+
+    def set_candidate(self, spec: str, material: str) -> None:
+        """Make ``spec`` in ``material`` the candidate (from the stock finder)."""
+        self.set_shaft("candidate", spec)
+        if material:
+            same = material == (self.value("material") or "1045-cd")
+            self.row("candidate_material").set_value("" if same else material)
+        self._schedule()
+
+    def show_errors(self, errors: dict[str, str]) -> None:
+        """Mark every invalid field in place; clears the others."""
+        targets = {ERROR_TARGET.get(k, k): m for k, m in errors.items()}
+        if targets == self._shown_errors:
+            return  # the usual keystroke: nothing to re-mark
+        for key in set(targets) | set(self._shown_errors):
+            if targets.get(key) != self._shown_errors.get(key):
+                try:
+                    self.row(key).set_error(targets.get(key, ""))
+                except NoMatches:  # a key with no row of its own: the panel names it
+                    continue
+        self._shown_errors = targets
+
+    def set_material_suggestions(self, keys: list[str]) -> None:
+        """Complete material keys in both material fields."""
+        for key in ("material", "candidate_material"):
+            self.row(key).set_suggestions(keys)
+
+    # -- behaviour -----------------------------------------------------------------------------
+    def _apply_profile(self, prefix: str) -> None:
+        profile = self.value(f"{prefix}_profile")
+        second = self.row(f"{prefix}_second")
+        second.display = profile in SECOND_LABEL
+        second.set_label(SECOND_LABEL.get(profile, "Bore"))
+        self.row(f"{prefix}_keyseat").display = profile in ("round", "tube")
+        self.row(f"{prefix}_size").set_hint(SIZE_HINT.get(profile, ""))
+        self._update_spec_line(prefix)
+
+    def _update_spec_line(self, prefix: str) -> None:
+        spec = self.shaft_spec(prefix)
+        size = self.value(f"{prefix}_size")
+        note = "  (typed in full)" if size and is_full_spec(size) else ""
+        text = f"→ {spec}{note}" if spec else "→ no size yet"
+        self.query_one(f"#spec-{prefix}", Static).update(text)
+
+    def on_choice_changed(self, event: Choice.Changed) -> None:
+        key = event.choice.id or ""
+        if key.endswith("_profile"):
+            self._apply_profile(key.rsplit("_", 1)[0])
+        elif key.startswith(SHAFT_PREFIXES):
+            self._update_spec_line(key.split("_", 1)[0])
+        self._schedule()
+
+    def on_input_changed(self, event: Input.Changed) -> None:
+        key = event.input.id or ""
+        if key.startswith(SHAFT_PREFIXES) and not key.endswith("material"):
+            self._update_spec_line(key.split("_", 1)[0])
+        self._schedule()
+
+    def on_input_submitted(self, event: Input.Submitted) -> None:
+        event.stop()
+        self.screen.focus_next()
+
+    def _schedule(self) -> None:
+        if self._loading or not self.is_mounted:
+            return
+        if self._timer is not None:
+            self._timer.stop()
+        self._timer = self.set_timer(DEBOUNCE_S, self._emit)
+
+    def _emit(self) -> None:
+        self._timer = None
+        self.post_message(SheetChanged(self.inputs()))
+
+    def action_section(self, step: int) -> None:
+        """Move the cursor to the first field of the next (or previous) part of the sheet."""
+        firsts = [section.fields[0].key for section in SECTIONS]
+        focused = self.screen.focused
+        current = 0
+        if focused is not None:
+            for index, section in enumerate(SECTIONS):
+                if any(focused.id == f.key for f in section.fields):
+                    current = index
+        target = firsts[(current + step) % len(firsts)]
+        widget = self.query_one(f"#{target}")
+        widget.focus()
+        self.query_one(f"#title-{SECTIONS[(current + step) % len(SECTIONS)].id}").scroll_visible(
+            top=True
+        )
