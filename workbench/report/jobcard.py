@@ -128,6 +128,8 @@ def _shafts(result: Mapping[str, Any]) -> RenderableType:
         ("static safety factor", lambda s: number(s.get("static_safety_factor"))),
         ("shear-yield safety factor", lambda s: number(s.get("shear_yield_safety_factor"))),
         ("fatigue safety factor", lambda s: number(s.get("fatigue_safety_factor"))),
+        ("Kf / Kfs", lambda s: f"{number(s.get('Kf'))} / {number(s.get('Kfs'))} ({s.get('feature', '')})"),
+        ("mass", lambda s: number(s.get("mass_kg_per_m"), 1, "kg/m")),
         ("verdict", lambda s: verdict_text(s.get("verdict"))),
     ]
     for label, cell in rows:
@@ -137,7 +139,12 @@ def _shafts(result: Mapping[str, Any]) -> RenderableType:
         for s in shafts
         if s.get("why")
     ]
-    return Group(table, *whys)
+    notes = [
+        Text.assemble((f"note ({s.get('role', 'shaft')}): ", "dim"), literal(note))
+        for s in shafts
+        for note in (s.get("notes") or [])
+    ]
+    return Group(table, *whys, *notes)
 
 
 def _deciding_shaft(result: Mapping[str, Any]) -> Mapping[str, Any]:
