@@ -79,7 +79,7 @@ async def test_lists_newest_first_and_filters_as_you_type(tmp_path):
         assert isinstance(screen, ReviewScreen)
         await _settle(pilot, screen, 1)
         assert _ids(screen) == [special, *reversed(ids)]
-        await pilot.press("slash", "k", "I", "l", "n")
+        await pilot.press("k", "I", "l", "n")  # the filter has focus on open
         await _settle(pilot, screen, 2)
         assert _ids(screen) == [special]
         screen.query_one("#review-text", Input).value = "noisy"  # notes are searched too
@@ -122,6 +122,7 @@ async def test_reopen_and_duplicate_dismiss_with_the_inputs(tmp_path):
         app = Host(path)
         async with app.run_test(size=SIZE) as pilot:
             await _settle(pilot, app.screen, 1)
+            await pilot.press("down")  # from the filter to the list
             await pilot.press("down")  # the older job
             await pilot.press(key)
             await pilot.pause()
@@ -135,12 +136,36 @@ async def test_escape_leaves_the_filter_then_closes_with_none(tmp_path):
     app = Host(path)
     async with app.run_test(size=SIZE) as pilot:
         await _settle(pilot, app.screen, 1)
-        await pilot.press("slash", "d")  # typing a letter bound to an action only filters
+        await pilot.press("d")  # typing a letter bound to an action only filters
         await _settle(pilot, app.screen, 2)
         assert isinstance(app.focused, Input) and app.focused.value == "d"
         await pilot.press("escape")
         assert isinstance(app.focused, DataTable)
         await pilot.press("escape")
+        await pilot.pause()
+    assert app.outcomes == [None]
+
+
+@run_async
+async def test_opens_ready_to_type_a_filter_and_escape_closes(tmp_path):
+    """A fitter opening the log types straight away: letters filter, they never trigger actions."""
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 3)
+    with JobLog.open(path) as log:
+        special = log.save(dict(JOB_INPUTS["demo"]), result_for("demo"), asset="Kestrel pump")
+    app = Host(path)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = app.screen
+        await _settle(pilot, screen, 1)
+        assert isinstance(app.focused, Input)
+        await pilot.press(*"kestrel")  # holds d-, r-, t- and c-like action letters: none may fire
+        await _settle(pilot, screen, 2)
+        assert _ids(screen) == [special]
+        with JobLog.open(path) as log:
+            assert log.count() == len(ids) + 1 and log.count(deleted=True) == 0
+        screen.query_one("#review-text", Input).value = ""
+        await _settle(pilot, screen, 3)
+        await pilot.press("escape")  # an empty filter: Esc closes at once
         await pilot.pause()
     assert app.outcomes == [None]
 
@@ -153,6 +178,7 @@ async def test_delete_asks_first_then_restore_from_the_bin(tmp_path):
     async with app.run_test(size=SIZE) as pilot:
         screen = app.screen
         await _settle(pilot, screen, 1)
+        await pilot.press("down")  # from the filter to the list
         await pilot.press("d")
         await pilot.pause()
         assert isinstance(app.screen, ConfirmScreen)
@@ -184,6 +210,7 @@ async def test_pages_never_hold_more_than_a_page(tmp_path):
         screen = app.screen
         await _settle(pilot, screen, 1)
         assert _ids(screen) == list(reversed(ids))[:10]
+        await pilot.press("down")  # from the filter to the list
         await pilot.press("n")
         await _settle(pilot, screen, 2)
         await pilot.press("n")
@@ -204,6 +231,7 @@ async def test_card_export_writes_the_chosen_format(tmp_path, suffix, marker):
     app = Host(path, card_dir=tmp_path)
     async with app.run_test(size=SIZE) as pilot:
         await _settle(pilot, app.screen, 1)
+        await pilot.press("down")  # from the filter to the list
         await pilot.press("x")
         await pilot.pause()
         field = app.screen.query_one("#card-path", Input)

@@ -116,6 +116,8 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         Binding("n", "page(1)", "Next page", id="review.next"),
         Binding("p", "page(-1)", "Prev page", id="review.prev"),
         Binding("slash", "focus_filter", "Filter", id="review.filter", tooltip="Type to filter"),
+        Binding("down", "to_table", "Jobs", id="review.to_table", show=False,
+                tooltip="From the filter, move to the list of jobs"),
     ]
 
     def __init__(
@@ -159,7 +161,7 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         for label, key in (("id", "id"), ("saved (UTC)", "saved"), ("asset", "asset"),
                            ("location", "location"), ("verdict", "verdict"), ("material", "material")):
             table.add_column(label, key=key)
-        table.focus()
+        self.query_one("#review-text", Input).focus()  # type to filter straight away
         self.reload()
 
     # -- loading --------------------------------------------------------------------------
@@ -289,10 +291,13 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
     # -- actions --------------------------------------------------------------------------
 
     def action_close(self) -> None:
-        if isinstance(self.focused, Input):
+        if isinstance(self.focused, Input) and self.focused.value:
             self.query_one(DataTable).focus()
         else:
             self.dismiss(None)
+
+    def action_to_table(self) -> None:
+        self.query_one(DataTable).focus()
 
     def action_focus_filter(self) -> None:
         self.query_one("#review-text", Input).focus()
