@@ -160,8 +160,8 @@ def _verdict(result: Mapping[str, Any], fitted: str) -> RenderableType:
     shaft = _deciding_shaft(result)
     line = Text.assemble(("Overall: ", "bold"), verdict_text(result.get("verdict")))
     if shaft:
-        line.append_text(Text.assemble(("  (", "dim"), literal(shaft.get("role", "")), (" ", "dim"),
-                                       literal(shaft.get("spec", "")), (")", "dim")))
+        line.append_text(Text.assemble(("  — ", "dim"), literal(shaft.get("role", "")), (" ", "dim"),
+                                       literal(shaft.get("spec", ""))))
     parts: list[RenderableType] = [line]
     if shaft.get("governing"):
         parts.append(Text.assemble(("governed by: ", "dim"), literal(shaft.get("governing"))))
@@ -269,8 +269,10 @@ def export_card(card: RenderableType, fmt: str, *, width: int = 96) -> str:
         legacy_windows=False,
     )
     console.print(card)
+    from rich.terminal_theme import DEFAULT_TERMINAL_THEME  # black on white: it goes on paper
+
     if fmt == "html":
-        return console.export_html(inline_styles=True)
+        return console.export_html(inline_styles=True, theme=DEFAULT_TERMINAL_THEME)
     if fmt == "svg":
-        return console.export_svg(title=CARD_TITLE)
+        return console.export_svg(title=CARD_TITLE, theme=DEFAULT_TERMINAL_THEME)
     return console.export_text(styles=False)
