@@ -106,8 +106,30 @@ def render_check(result: dict, system: str = "metric") -> Group:
             ))
         for note in shaft.get("notes", []):
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
+    parts.append(methods_panel(result))
     parts.append(cautions_panel(result["cautions"]))
     return Group(*parts)
+
+
+def methods_panel(result: dict) -> Panel:
+    """Where every figure comes from: each shaft's methods, the mount factor's source, the settings."""
+    lines = Text()
+    seen: dict[tuple[str, str], list[str]] = {}
+    for shaft in result["shafts"]:
+        for what, how in shaft["methods"].items():
+            seen.setdefault((what, how), []).append(shaft["role"])
+    every = len(result["shafts"])
+    for (what, how), roles in seen.items():
+        lines.append(f"{what}{'' if len(roles) == every else ' (' + ', '.join(roles) + ')'}: ", style="dim")
+        lines.append(f"{how}\n")
+    mount = result["mount"]
+    lines.append("mount factor: ", style="dim")
+    lines.append(f"{mount['element']} K = {mount['load_factor']:g} — {mount['source']}\n")
+    settings = result["settings"]
+    lines.append("verdict: ", style="dim")
+    lines.append(f"required safety factor {settings['required_sf']:g}; reliability {settings['reliability']:g}; "
+                 "marginal = within 10 % above the required factor, or twist over its limit")
+    return Panel(lines, title="Methods and sources", title_align="left", border_style="dim")
 
 
 def render_substitution(result: dict, system: str = "metric") -> Group:
