@@ -29,7 +29,7 @@ JOB_OPTIONS = (
     ("--ratio", "ratio", "speed reduction motor -> shaft (default 1)"),
     ("--efficiency", "efficiency", "drive efficiency, '0.95' or '95%%' (default 1)"),
     ("--service-factor", "service_factor", "service factor of the driven machine's duty (default 1)"),
-    ("--peak-factor", "peak_factor", "start/peak torque as a multiple of running torque (default 2)"),
+    ("--peak-factor", "peak_factor", "start/peak torque as a multiple of running torque (default 2; NEMA design B motors start at 0.7-2.75x full-load torque, EASA after NEMA MG 10)"),
     ("--mount", "mount", "coupling | sprocket | timing-belt | gear | vbelt | flat-belt (default coupling)"),
     ("--pitch-diameter", "pitch_diameter", "pitch diameter of the pulley/sprocket/gear (bare: mm)"),
     ("--overhang", "overhang", "nearest bearing to the element's load line (bare: mm)"),
