@@ -10,7 +10,7 @@ from __future__ import annotations
 import pytest
 
 from workbench.tui import display
-from workbench.tui.fields import compose_spec, split_spec
+from workbench.tui.fields import compose_spec, profile_words_tip, split_spec
 
 
 def test_torque_inch_matches_nist_factor():
@@ -68,6 +68,11 @@ def test_number_and_factor_edge_cases():
         (("round", "1-1/4in", "", "plain", "machined"), "round 1-1/4in"),
         (("hex", "hex 27mm sharp-shoulder", "", "plain", "machined"), "hex 27mm sharp-shoulder"),
         (("round", "", "", "keyed", "machined"), ""),
+        # shape words typed after the size (ground flats, corner radius, chamfer; bare = mm)
+        (("round", "40 d-flat 2", "", "plain", "machined"), "round 40mm d-flat 2mm"),
+        (("round", "40 double-d 2.5mm", "", "plain", "ground"), "round 40mm double-d 2.5mm ground"),
+        (("square", "40 radius 3", "", "plain", "machined"), "square 40mm radius 3mm"),
+        (("flat", "50 chamfer 2", "20", "plain", "machined"), "flat 50mm x 20mm chamfer 2mm"),
     ],
 )
 def test_compose_spec(parts, spec):
@@ -75,7 +80,16 @@ def test_compose_spec(parts, spec):
 
 
 @pytest.mark.parametrize(
-    "spec", ["round 40mm keyed", "tube 60mm/50mm ground", "flat 50mm x 20mm", "square 1-1/4in"]
+    "spec",
+    [
+        "round 40mm keyed",
+        "tube 60mm/50mm ground",
+        "flat 50mm x 20mm",
+        "square 1-1/4in",
+        "round 25mm d-flat 2mm",
+        "square 30mm chamfer 2mm hot-rolled",
+        "flat 50mm x 20mm radius 3mm ground",
+    ],
 )
 def test_split_then_compose_round_trips(spec):
     parts = split_spec(spec)
@@ -86,3 +100,11 @@ def test_split_then_compose_round_trips(spec):
 def test_split_spec_keeps_words_it_has_no_field_for():
     assert split_spec("hex 27mm sharp-shoulder") is None
     assert split_spec("oval 30mm") is None
+
+
+def test_profile_words_ride_in_the_size_field():
+    parts = split_spec("square 30mm radius 3mm ground")
+    assert parts == {"profile": "square", "size": "30 radius 3mm", "second": "", "keyseat": "plain",
+                     "finish": "ground"}
+    assert "d-flat" in profile_words_tip("round") and "chamfer" in profile_words_tip("flat")
+    assert profile_words_tip("hex") == "" and profile_words_tip("tube") == ""

@@ -272,3 +272,25 @@ async def test_enter_moves_on_and_pagedown_jumps_parts(make_app):
         await pilot.press("t")  # tube: the bore field appears in the tab order
         await pilot.press("tab", "tab")
         assert app.focused.id == "shaft_second"
+
+
+async def test_size_field_takes_solver_profiles(make_app):
+    app = make_app(demo=True)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        sheet = app.job_screen.sheet
+        tip = _text(sheet.query_one("#spec-candidate", Static))
+        assert "radius 3 or chamfer 2" in tip  # the square's shape words are offered
+        await _type(pilot, "candidate_size", "40 radius 3")
+        await settle(pilot)
+        result = app.job_screen.result
+        assert result["inputs"]["candidate"] == "square 40mm radius 3mm"
+        line = _text(sheet.query_one("#spec-candidate", Static))
+        assert "→ square 40mm radius 3mm" in line and "or chamfer" not in line  # tip gone once used
+        # rounded corners have no closed form: the solver's method is named
+        assert "finite elements" in str(result["shafts"][1]["methods"])
+        app.job_screen.sheet.set_shaft("shaft", "round 40mm double-d 3mm")
+        await settle(pilot)
+        assert sheet.value("shaft_profile") == "round"
+        assert sheet.value("shaft_size") == "40 double-d 3mm"
+        assert app.job_screen.result["inputs"]["shaft"] == "round 40mm double-d 3mm"

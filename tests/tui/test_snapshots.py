@@ -51,3 +51,24 @@ def test_screen_snapshot(snap_compare, screen, size, tmp_path):
         await pilot.pause()
 
     assert snap_compare(app, terminal_size=size, run_before=run_before)
+
+
+@pytest.mark.parametrize("look", ["nocolor", "light"])
+def test_look_snapshot(snap_compare, look, tmp_path, monkeypatch):
+    """The job sheet at 80x24 with NO_COLOR (marks carried by symbols and text styles) and in the
+    light theme, with one invalid field so the error marks are in the picture too."""
+    if look == "nocolor":
+        monkeypatch.setenv("NO_COLOR", "1")
+    app = ShaftbenchApp(demo=True, log_path=str(tmp_path / "jobs.sqlite3"))
+    assert app.no_color is (look == "nocolor")
+
+    async def run_before(pilot) -> None:
+        if look == "light":
+            app.theme = "textual-light"
+        await settle(pilot)
+        app.screen.query_one("#overhang", Input).value = "far"
+        await settle(pilot)
+        _steady(app)
+        await pilot.pause()
+
+    assert snap_compare(app, terminal_size=(80, 24), run_before=run_before)

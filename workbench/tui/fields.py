@@ -106,6 +106,29 @@ SIZE_HINT = {
     "hex": "across flats, bare = mm",
 }
 
+#: spec words that shape a profile further, each followed by a size; typed after the size
+#: ("40 d-flat 2" on a round, "30 radius 3" on a square or flat), they ride in the Size field
+PROFILE_WORDS = ("d-flat", "double-d", "radius", "chamfer")
+PROFILE_WORDS_FOR = {"round": ("d-flat", "double-d"), "square": ("radius", "chamfer"),
+                     "flat": ("radius", "chamfer")}
+SIZE_PLACEHOLDER = {
+    "round": "e.g. 40 d-flat 2",
+    "tube": "e.g. 60",
+    "square": "e.g. 40 radius 3",
+    "flat": "e.g. 50 chamfer 2",
+    "hex": "e.g. 27",
+}
+
+
+def profile_words_tip(profile: str) -> str:
+    """One line telling the fitter which shape words the size field takes for ``profile``."""
+    words = PROFILE_WORDS_FOR.get(profile)
+    if not words:
+        return ""
+    first = f"{words[0]} {3 if words[0] == 'radius' else 2}"
+    return f"size + {first} or {words[1]} 2"
+
+
 _BARE_NUMBER = re.compile(r"^\s*\d+(?:\.\d*)?\s*$|^\s*\.\d+\s*$")
 _SPEC_START = re.compile(r"^\s*(round|tube|square|flat|hex)\b", re.IGNORECASE)
 
@@ -121,26 +144,49 @@ def is_full_spec(text: str) -> bool:
     return bool(_SPEC_START.match(text))
 
 
+def split_size_words(size: str) -> tuple[str, list[str]]:
+    """(the size, the profile words after it) of a Size field: "40 d-flat 2" -> ("40", [...]).
+
+    A bare number after a profile word gets ``mm`` (bare sizes are millimetres).
+
+    >>> split_size_words("40 d-flat 2")
+    ('40', ['d-flat', '2mm'])
+    """
+    tokens = size.split()
+    for index, token in enumerate(tokens):
+        if token.lower() in PROFILE_WORDS:
+            words = tokens[index:]
+            words = [with_mm(w) if i % 2 else w.lower() for i, w in enumerate(words)]
+            return " ".join(tokens[:index]), words
+    return size.strip(), []
+
+
 def compose_spec(profile: str, size: str, second: str, keyseat: str, finish: str) -> str:
     """The spec string for a shaft from its sheet fields; "" when no size is given.
+
+    The Size field may end in profile words (ground flats, corner radius or chamfer), which go
+    after the size in the spec.
 
     >>> compose_spec("round", "40", "", "keyed", "machined")
     'round 40mm keyed'
     >>> compose_spec("flat", "50", "20", "plain", "ground")
     'flat 50mm x 20mm ground'
+    >>> compose_spec("square", "40 radius 3", "", "plain", "machined")
+    'square 40mm radius 3mm'
     """
     size = size.strip()
     if not size:
         return ""
     if is_full_spec(size):
         return size
+    size, shape_words = split_size_words(size)
     if profile == "tube":
         body = f"tube {with_mm(size)}/{with_mm(second)}" if second.strip() else f"tube {with_mm(size)}"
     elif profile == "flat":
         body = f"flat {with_mm(size)} x {with_mm(second)}" if second.strip() else f"flat {with_mm(size)}"
     else:
         body = f"{profile} {with_mm(size)}"
-    words = [body]
+    words = [body, *shape_words]
     if keyseat == "keyed" and profile in ("round", "tube"):
         words.append("keyed")
     if finish and finish != "machined":
@@ -169,6 +215,18 @@ def split_spec(spec: str) -> dict[str, str] | None:
     profile = match.group(1).lower()
     tokens = spec[match.end():].split()
     keyseat, finish = "plain", "machined"
+    shape_words: list[str] = []
+    kept: list[str] = []
+    index = 0
+    while index < len(tokens):  # profile words and their sizes, wherever they stand
+        token = tokens[index]
+        if token.lower() in PROFILE_WORDS and index + 1 < len(tokens):
+            shape_words += [token.lower(), tokens[index + 1]]
+            index += 2
+            continue
+        kept.append(token)
+        index += 1
+    tokens = kept
     while tokens and (tokens[-1] == "keyed" or tokens[-1] in FINISHES):
         word = tokens.pop()
         if word == "keyed":
@@ -187,9 +245,10 @@ def split_spec(spec: str) -> dict[str, str] | None:
         if len(parts) != 2:
             return None
         size_text, second = parts
+    size_field = " ".join([_strip_mm(size_text), *shape_words])
     return {
         "profile": profile,
-        "size": _strip_mm(size_text),
+        "size": size_field,
         "second": _strip_mm(second),
         "keyseat": keyseat,
         "finish": finish,

@@ -26,6 +26,12 @@ Typing
   Any field takes metric or inch: 7.5 kW, 10 hp, 1460 rpm, 200 mm, 8 in, 1-1/4in.
   A bare number is kW, rpm or mm. A size field also takes a whole spec:
   "tube 60mm/50mm", "flat 50mm x 20mm ground".
+  Shapes the solver works out, typed after the size (bare = mm):
+    round          40 d-flat 2     one ground flat 2 mm deep
+                   40 double-d 2   two opposite ground flats
+    square, flat   40 radius 3     rounded corners, radius 3 mm
+                   40 chamfer 2    chamfered corners, 2 mm
+  F2 shows where the peak shear sits on each of them.
   Results follow every keystroke; a field that cannot be read is marked where it
   is, and the last good result stays on the right, dimmed, until it is fixed.
 

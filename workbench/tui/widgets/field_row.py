@@ -1,44 +1,52 @@
-"""One row of the job sheet: label, the control, a hint, and the error line under it."""
+"""One row of the job sheet: label, the control and a hint on one grid line, an error line under it.
+
+The row is a single grid container (no inner containers) and its error line is mounted only the
+first time the field is found invalid: the sheet has some thirty rows, and every widget styled
+before the first frame costs start-up time.
+"""
 
 from __future__ import annotations
 
 from textual.app import ComposeResult
-from textual.containers import Horizontal, Vertical
 from textual.suggester import SuggestFromList
+from textual.widget import Widget
 from textual.widgets import Input, Label, Static
 
 from ..fields import FieldSpec
 from .choice import Choice
 
 
-class FieldRow(Vertical):
+class FieldRow(Widget):
     """A labelled input or pick-list for one field; ``set_error`` marks it invalid in place."""
 
     def __init__(self, spec: FieldSpec, **kwargs) -> None:
         super().__init__(id=f"row-{spec.key}", classes="field-row", **kwargs)
         self.spec = spec
+        self._control: Input | Choice | None = None
+        self._error: Static | None = None
 
     def compose(self) -> ComposeResult:
         spec = self.spec
-        with Horizontal(classes="field-line"):
-            yield Label(spec.label, classes="field-label", id=f"label-{spec.key}")
-            if spec.choices:
-                yield Choice(spec.choices, id=spec.key, classes="field-control")
-            else:
-                yield Input(
-                    placeholder=spec.placeholder,
-                    id=spec.key,
-                    classes="field-control",
-                    compact=True,
-                    select_on_focus=False,
-                )
-            yield Static(spec.hint, classes="field-hint", id=f"hint-{spec.key}")
-        yield Static("", classes="field-error", id=f"error-{spec.key}")
+        yield Label(spec.label, classes="field-label", id=f"label-{spec.key}")
+        if spec.choices:
+            self._control = Choice(spec.choices, id=spec.key, classes="field-control")
+        else:
+            self._control = Input(
+                placeholder=spec.placeholder,
+                id=spec.key,
+                classes="field-control",
+                compact=True,
+                select_on_focus=False,
+            )
+        yield self._control
+        yield Static(spec.hint, classes="field-hint", id=f"hint-{spec.key}")
 
     @property
     def control(self) -> Input | Choice:
         """The input or pick-list of this row."""
-        return self.query_one(f"#{self.spec.key}")
+        if self._control is None:
+            self._control = self.query_one(f"#{self.spec.key}")
+        return self._control
 
     @property
     def value(self) -> str:
@@ -64,6 +72,12 @@ class FieldRow(Vertical):
         """Change the hint beside the field."""
         self.query_one(".field-hint", Static).update(hint)
 
+    def set_placeholder(self, placeholder: str) -> None:
+        """Change the greyed example shown while a text field is empty."""
+        control = self.control
+        if isinstance(control, Input):
+            control.placeholder = placeholder
+
     def set_suggestions(self, words: list[str]) -> None:
         """Offer completions (→ accepts) for a text field."""
         control = self.control
@@ -74,4 +88,11 @@ class FieldRow(Vertical):
         """Mark the field invalid with ``message`` under it, or clear the mark with ""."""
         self.set_class(bool(message), "-invalid")
         self.control.set_class(bool(message), "-invalid")
-        self.query_one(".field-error", Static).update(f"✗ {message}" if message else "")
+        text = f"✗ {message}" if message else ""
+        if self._error is None:
+            if not message:
+                return
+            self._error = Static(text, classes="field-error", id=f"error-{self.spec.key}")
+            self.mount(self._error)
+        else:
+            self._error.update(text)

@@ -16,8 +16,11 @@ from ..fields import (
     SECOND_LABEL,
     SECTIONS,
     SIZE_HINT,
+    SIZE_PLACEHOLDER,
     compose_spec,
     is_full_spec,
+    profile_words_tip,
+    split_size_words,
     split_spec,
 )
 from ..messages import SheetChanged
@@ -29,8 +32,13 @@ SHAFT_PREFIXES = ("shaft", "candidate")
 _SHAFT_PARTS = ("profile", "size", "second", "keyseat", "finish")
 
 
-class JobSheet(VerticalScroll):
-    """The form. Posts :class:`SheetChanged` (debounced) whenever what is typed changes."""
+class JobSheet(VerticalScroll, can_focus=False):
+    """The form. Posts :class:`SheetChanged` (debounced) whenever what is typed changes.
+
+    The sheet itself never takes focus (its fields do, and scroll into view): a focusable scroll
+    container would be focused first at start-up and then blurred, and each change restyles
+    every widget of the sheet.
+    """
 
     BINDINGS = [
         Binding("pagedown", "section(1)", "Next part", show=False, id="sheet.next_section"),
@@ -143,7 +151,9 @@ class JobSheet(VerticalScroll):
         second.display = profile in SECOND_LABEL
         second.set_label(SECOND_LABEL.get(profile, "Bore"))
         self.row(f"{prefix}_keyseat").display = profile in ("round", "tube")
-        self.row(f"{prefix}_size").set_hint(SIZE_HINT.get(profile, ""))
+        size_row = self.row(f"{prefix}_size")
+        size_row.set_hint(SIZE_HINT.get(profile, ""))
+        size_row.set_placeholder(SIZE_PLACEHOLDER.get(profile, "e.g. 40"))
         self._update_spec_line(prefix)
 
     def _update_spec_line(self, prefix: str) -> None:
@@ -151,6 +161,9 @@ class JobSheet(VerticalScroll):
         size = self.value(f"{prefix}_size")
         note = "  (typed in full)" if size and is_full_spec(size) else ""
         text = f"→ {spec}{note}" if spec else "→ no size yet"
+        tip = profile_words_tip(self.value(f"{prefix}_profile"))
+        if tip and not is_full_spec(size) and not split_size_words(size)[1]:
+            text += f"\n{tip}"  # how to enter flats, radii, chamfers: until they are used
         self.query_one(f"#spec-{prefix}", Static).update(text)
 
     def on_choice_changed(self, event: Choice.Changed) -> None:
