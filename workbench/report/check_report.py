@@ -7,7 +7,7 @@ from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
-from workbench.tui import display as fmt
+from workbench.report import display as fmt
 
 VERDICT_STYLE = {"pass": "bold green", "marginal": "bold yellow", "fail": "bold red"}
 

@@ -20,7 +20,8 @@ from textual.screen import Screen
 from textual.widgets import Footer, LoadingIndicator, Static
 from textual.worker import get_current_worker
 
-from .. import display, engine
+from workbench.report import display
+from .. import engine
 from ..widgets.section_plot import PEAK_MARK, RAMP, legend, render_map
 
 _ROLE_TITLE = {"shaft": "as found", "candidate": "candidate"}

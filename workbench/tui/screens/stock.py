@@ -11,7 +11,8 @@ from textual.containers import Horizontal
 from textual.screen import Screen
 from textual.widgets import DataTable, Footer, Input, Label, Static
 
-from .. import display, engine
+from workbench.report import display
+from .. import engine
 from ..fields import PROFILES
 from ..widgets.choice import Choice
 

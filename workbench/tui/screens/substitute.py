@@ -14,7 +14,8 @@ from textual.containers import VerticalScroll
 from textual.screen import Screen
 from textual.widgets import Footer, Static
 
-from .. import display, engine
+from workbench.report import display
+from .. import engine
 
 
 class SubstituteScreen(Screen):

@@ -9,7 +9,7 @@ from rich.text import Text
 from textual.containers import VerticalScroll
 from textual.widgets import Static
 
-from .. import display
+from workbench.report import display
 
 _ROLE_TITLE = {"existing": "as found", "candidate": "candidate"}
 

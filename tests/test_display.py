@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import pytest
 
-from workbench.tui import display
+from workbench.report import display
 from workbench.tui.fields import compose_spec, profile_words_tip, split_spec
 
 
