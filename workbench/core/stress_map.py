@@ -56,19 +56,28 @@ def shear_stress_map(geometry: ShaftGeometry, cols: int, rows: int) -> StressMap
     return _map_cached(_geometry_key(geometry), int(cols), int(rows))
 
 
+def map_method(geometry: ShaftGeometry) -> str:
+    """How the map of ``geometry`` is made: "exact" (plain round or tube), "series" (square or flat
+    with sharp corners) or "solver" (everything else)."""
+    g = geometry
+    if g.profile in ("round", "tube") and not g.keyed and not g.flats:
+        return "exact"
+    if g.profile in ("square", "flat") and g.corner_radius_m <= 0 and g.chamfer_m <= 0:
+        return "series"
+    return "solver"
+
+
 @lru_cache(maxsize=64)
 def _map_cached(geometry: ShaftGeometry, cols: int, rows: int) -> StressMap:
     import numpy as np
 
     g = geometry
-    plain_round = g.profile in ("round", "tube") and not g.keyed and not g.flats
-    sharp_rectangle = (g.profile in ("square", "flat") and g.corner_radius_m <= 0
-                       and g.chamfer_m <= 0)
-    if plain_round:
+    how = map_method(g)
+    if how == "exact":
         inner_m = g.second_m if g.profile == "tube" else 0.0
         inside, tau_rel = round_shear_map(g.size_m, inner_m, cols, rows)
         method = "exact: tau = T r / J"
-    elif sharp_rectangle:
+    elif how == "series":
         height_m = g.size_m if g.profile == "square" else g.second_m
         if height_m <= 0:
             raise ValueError("a flat needs its thickness")
