@@ -269,6 +269,10 @@ async def test_enter_moves_on_and_pagedown_jumps_parts(make_app):
         assert app.focused.id == "candidate_profile"
         await pilot.press("pageup")
         assert app.focused.id == "shaft_profile"
+        await pilot.press("s", "enter")  # Enter on a pick-list keeps the pick and moves on, too
+        assert app.focused.id == "shaft_size"
+        await pilot.press("shift+tab")
+        assert app.focused.id == "shaft_profile"
         await pilot.press("t")  # tube: the bore field appears in the tab order
         await pilot.press("tab", "tab")
         assert app.focused.id == "shaft_second"

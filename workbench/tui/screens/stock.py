@@ -94,7 +94,7 @@ class StockScreen(Screen[dict[str, str] | None]):
             return
         rows = stock_rows(data, _required_sf(self.inputs))
         self.rows = rows
-        table.add_columns("size", "material", "least SF", "margin", "verdict", "mass")
+        table.add_columns("size", "material", "least SF", "margin", "verdict", "mass", "journal")
         for row in rows:
             table.add_row(
                 row["spec"],
@@ -103,13 +103,15 @@ class StockScreen(Screen[dict[str, str] | None]):
                 "—" if row.get("margin") is None else f"{row['margin'] * 100:+.0f} %",
                 display.verdict(row.get("verdict")),
                 display.mass_per_length(row.get("mass_kg_per_m"), self.system),
+                display.length(row.get("journal_m"), self.system) + (" *" if row.get("journal_short") else ""),
             )
         first_pass = next((i for i, r in enumerate(rows) if r.get("verdict") == "pass"), 0)
         if rows:
             table.move_cursor(row=first_pass)  # the smallest clear pass, not a marginal size
         passing = sum(r.get("verdict") == "pass" for r in rows)
+        short = " · * journal smaller than the shaft as found" if any(r.get("journal_short") for r in rows) else ""
         status.update(
-            f"{passing} pass, {len(rows) - passing} marginal · Enter takes the highlighted one"
+            f"{passing} pass, {len(rows) - passing} marginal · Enter takes the highlighted one{short}"
             if rows
             else "no size passes"
         )
@@ -163,6 +165,8 @@ def stock_rows(data: dict[str, Any], required_sf: float = 1.5) -> list[dict[str,
                 "verdict": row.get("verdict"),
                 "mass_kg_per_m": row.get("mass_kg_per_m"),
                 "size": (row.get("size_m") or 0.0, row.get("second_m") or 0.0),
+                "journal_m": row.get("largest_journal_m"),
+                "journal_short": row.get("gives_existing_journal") is False,
             }
         )
     out.sort(key=lambda r: (r["size"], r["material"]))

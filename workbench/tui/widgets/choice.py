@@ -17,6 +17,7 @@ class Choice(Widget, can_focus=True):
     BINDINGS = [
         Binding("left", "step(-1)", "Prev", show=False, id="choice.prev"),
         Binding("right,space", "step(1)", "Next", show=False, id="choice.next"),
+        Binding("enter", "done", "Next field", show=False, id="choice.done"),
     ]
 
     DEFAULT_CSS = """
@@ -52,6 +53,10 @@ class Choice(Widget, can_focus=True):
     def action_step(self, step: int) -> None:
         index = self.options.index(self.value) if self.value in self.options else 0
         self.value = self.options[(index + step) % len(self.options)]
+
+    def action_done(self) -> None:
+        """Enter keeps the pick and moves on, as it does in the text fields of the sheet."""
+        self.screen.focus_next()
 
     def on_key(self, event) -> None:
         char = event.character
