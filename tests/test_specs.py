@@ -163,3 +163,18 @@ def test_round_trip_inch_sixteenths(spec):
 def test_round_trip_metric_above_100mm_with_hundredths():
     g = parse_spec("round 123.45mm")
     assert parse_spec(format_spec(g)) == g
+
+
+@pytest.mark.parametrize("spec, word", [("round 35mm polished", "polished"), ("round 1 1/4 in shiny", "shiny"),
+                                        ("square 30 mm keyd", "keyd")])
+def test_a_stray_word_after_the_size_is_named_as_a_word(spec, word):
+    """Regression: 'round 35mm polished' used to read as the unknown unit 'mm polished'."""
+    with pytest.raises(QuantityError) as info:
+        parse_spec(spec)
+    assert info.value.field == "shaft"
+    assert f"unknown word {word!r}" in str(info.value)
+
+
+@pytest.mark.parametrize("spec, size_m", [("round 35MM", 0.035), ("round 1-1/4 IN", 0.03175)])
+def test_shouted_units_are_read(spec, size_m):
+    assert parse_spec(spec).size_m == pytest.approx(size_m, rel=1e-12)

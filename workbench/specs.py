@@ -68,6 +68,37 @@ def parse_spec(text: str, field: str = "shaft") -> ShaftGeometry:
     words = (" " + rest)[match.start():].split() if match else []
     if not size_text:
         raise QuantityError(field, f"has no size; {SPEC_HELP}")
+    try:
+        return _parse_sized(field, profile, size_text, words)
+    except QuantityError as err:
+        _blame_stray_word(field, profile, size_text, words, err)
+        raise
+
+
+def _blame_stray_word(field: str, profile: str, size_text: str, words: list[str], err: QuantityError) -> None:
+    """If the size only fails because a word we do not know follows it, say so (not "unknown unit")."""
+    from workbench.units import registry
+
+    tokens = size_text.split()
+    try:
+        registry().parse_units(tokens[-1])
+        return  # the last word is a unit, only of the wrong kind: the original message says so
+    except Exception:
+        pass
+    for keep in range(len(tokens) - 1, 0, -1):
+        try:
+            _parse_sized(field, profile, " ".join(tokens[:keep]), [])
+        except QuantityError:
+            continue
+        raise QuantityError(
+            field,
+            f"unknown word {tokens[keep]!r}; expected keyed, key WxD, d-flat, double-d, radius, chamfer, "
+            f"a finish or a shoulder after the size",
+        ) from err
+
+
+def _parse_sized(field: str, profile: str, size_text: str, words: list[str]) -> ShaftGeometry:
+    """The size part and the words after it (see parse_spec)."""
     inch = bool(_INCH.search(size_text))
     unit = "in" if inch else "mm"
     second = 0.0

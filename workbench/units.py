@@ -64,6 +64,9 @@ _REWRITES = (
     (re.compile(r"″|''|\""), " in"),
     (re.compile(r"\brpm\b", re.I), "rpm"),
     (re.compile(r"\bHP\b"), "hp"),
+    (re.compile(r"(?<=\d)\s*MM\b"), " mm"),  # shouting units are still units; "MM" is not a mega-molar here
+    (re.compile(r"(?<=\d)\s*IN\b"), " in"),
+    (re.compile(r"\bKW\b"), "kW"),
     (re.compile(r"\bkw\b"), "kW"),
 )
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
