@@ -59,15 +59,15 @@ async def test_invalid_field_is_marked_in_place_and_last_result_dimmed(make_app)
         await _type(pilot, "power", "abc")
         await settle(pilot)
         sheet, panel = app.job_screen.sheet, app.job_screen.panel
-        assert sheet.row("power").has_class("-invalid")
+        assert sheet.row("power").invalid
         assert "power" in _text(sheet.query_one("#error-power", Static))
-        assert not sheet.row("speed").has_class("-invalid")
+        assert not sheet.row("speed").invalid
         assert panel.has_class("-stale") and panel.result is good
         assert "fix: power" in _text(panel.query_one("#verdict-status", Static))
         assert app.job_screen.result is None  # a stale result is never "the" result
         await _type(pilot, "power", "7.5 kW")
         await settle(pilot)
-        assert not sheet.row("power").has_class("-invalid")
+        assert not sheet.row("power").invalid
         assert not panel.has_class("-stale")
         assert app.job_screen.result == good
 
@@ -82,7 +82,7 @@ async def test_every_invalid_field_is_marked_at_once(make_app):
         await _type(pilot, "shaft_size", "40 parsecs")
         await settle(pilot)
         sheet = app.job_screen.sheet
-        invalid = {row.spec.key for row in sheet.query(".field-row.-invalid")}
+        invalid = sheet.invalid_keys()
         # "shaft" errors land on the size field of the shaft block
         assert invalid == {"efficiency", "overhang", "candidate_material", "shaft_size"}
         assert "✗ 4 fields to fix" in _text(app.job_screen.query_one("#title-bar", Static))
@@ -95,7 +95,7 @@ async def test_empty_sheet_and_missing_shaft_are_explained(make_app):
         await settle(pilot)
         sheet, panel = app.job_screen.sheet, app.job_screen.panel
         # an empty field is "still needed", not an error of the fitter's: no red mark on it
-        assert not sheet.row("shaft_size").has_class("-invalid")
+        assert not sheet.row("shaft_size").invalid
         assert "still needed: shaft" in _text(panel.query_one("#verdict-status", Static))
         assert "needs shaft" in _text(app.job_screen.query_one("#title-bar", Static))
         assert app.job_screen.has_class("-narrow")

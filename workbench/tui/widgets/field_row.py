@@ -1,13 +1,17 @@
-"""One row of the job sheet: label, the control and a hint on one grid line, an error line under it.
+"""One row of the job sheet: label, control and hint, placed straight into a part's field grid.
 
-The row is a single grid container (no inner containers) and its error line is mounted only the
-first time the field is found invalid: the sheet has some thirty rows, and every widget styled
-before the first frame costs start-up time.
+A row is a plain helper object, not a container: its label, control and hint are children of the
+grid of its part of the sheet (see :class:`FieldGrid`). Textual reuses a computed style only
+between widgets with the same parent, so one grid per part styles thirty labels, controls and
+hints almost as cheaply as one of each; a container per row would style every one afresh and make
+start-up slower. The error line is mounted into the grid, under the row, only the first time the
+field is found invalid.
 """
 
 from __future__ import annotations
 
-from textual.app import ComposeResult
+from textual.containers import Container
+from textual.geometry import Size
 from textual.suggester import SuggestFromList
 from textual.widget import Widget
 from textual.widgets import Input, Label, Static
@@ -16,37 +20,68 @@ from ..fields import FieldSpec
 from .choice import Choice
 
 
-class FieldRow(Widget):
+class FieldGrid(Container):
+    """The fields of one part of the sheet: a grid of label | control | hint (and error) lines."""
+
+
+class FieldError(Static):
+    """A row's error line: spans the grid's three columns and is as tall as its text needs there.
+
+    A grid measures an auto-height row cell by cell, at the width of the column the cell starts
+    in; this line spans all columns, so it measures itself at the whole grid's width instead.
+    """
+
+    def get_content_height(self, container: Size, viewport: Size, width: int) -> int:
+        full_width = container.width - self.styles.gutter.width
+        return super().get_content_height(container, viewport, max(width, full_width))
+
+
+class FieldRow:
     """A labelled input or pick-list for one field; ``set_error`` marks it invalid in place."""
 
-    def __init__(self, spec: FieldSpec, **kwargs) -> None:
-        super().__init__(id=f"row-{spec.key}", classes="field-row", **kwargs)
+    def __init__(self, spec: FieldSpec) -> None:
         self.spec = spec
-        self._control: Input | Choice | None = None
-        self._error: Static | None = None
-
-    def compose(self) -> ComposeResult:
-        spec = self.spec
-        yield Label(spec.label, classes="field-label", id=f"label-{spec.key}")
+        key = spec.key
+        self.label = Label(spec.label, classes="field-label", id=f"label-{key}")
+        self.control: Input | Choice
         if spec.choices:
-            self._control = Choice(spec.choices, id=spec.key, classes="field-control")
+            self.control = Choice(spec.choices, id=key, classes="field-control")
         else:
-            self._control = Input(
+            self.control = Input(
                 placeholder=spec.placeholder,
-                id=spec.key,
+                id=key,
                 classes="field-control",
                 compact=True,
                 select_on_focus=False,
+                validate_on=(),  # the job contract validates; Input's own pass would restyle
             )
-        yield self._control
-        yield Static(spec.hint, classes="field-hint", id=f"hint-{spec.key}")
+        self.hint = Static(spec.hint, classes="field-hint", id=f"hint-{key}")
+        self.error: Static | None = None
+        self._display = True
+
+    def widgets(self) -> tuple[Widget, Widget, Widget]:
+        """The row's widgets in grid order: label, control, hint."""
+        return (self.label, self.control, self.hint)
 
     @property
-    def control(self) -> Input | Choice:
-        """The input or pick-list of this row."""
-        if self._control is None:
-            self._control = self.query_one(f"#{self.spec.key}")
-        return self._control
+    def invalid(self) -> bool:
+        """True while the field is marked invalid."""
+        return self.label.has_class("-invalid")
+
+    @property
+    def display(self) -> bool:
+        """Whether the row takes its place on the sheet."""
+        return self._display
+
+    @display.setter
+    def display(self, show: bool) -> None:
+        if show == self._display:
+            return
+        self._display = show
+        for widget in self.widgets():
+            widget.display = show
+        if self.error is not None:
+            self.error.display = show and self.invalid
 
     @property
     def value(self) -> str:
@@ -66,11 +101,11 @@ class FieldRow(Widget):
 
     def set_label(self, label: str) -> None:
         """Change the label text (e.g. "Bore" / "Thickness" with the profile)."""
-        self.query_one(".field-label", Label).update(label)
+        self.label.update(label)
 
     def set_hint(self, hint: str) -> None:
         """Change the hint beside the field."""
-        self.query_one(".field-hint", Static).update(hint)
+        self.hint.update(hint)
 
     def set_placeholder(self, placeholder: str) -> None:
         """Change the greyed example shown while a text field is empty."""
@@ -86,13 +121,18 @@ class FieldRow(Widget):
 
     def set_error(self, message: str) -> None:
         """Mark the field invalid with ``message`` under it, or clear the mark with ""."""
-        self.set_class(bool(message), "-invalid")
-        self.control.set_class(bool(message), "-invalid")
+        invalid = bool(message)
+        self.label.set_class(invalid, "-invalid")
+        self.control.set_class(invalid, "-invalid")
         text = f"✗ {message}" if message else ""
-        if self._error is None:
+        if self.error is None:
             if not message:
                 return
-            self._error = Static(text, classes="field-error", id=f"error-{self.spec.key}")
-            self.mount(self._error)
+            self.error = FieldError(text, classes="field-error", id=f"error-{self.spec.key}")
+            self.error.display = self._display
+            grid = self.hint.parent
+            if grid is not None:
+                grid.mount(self.error, after=self.hint)
         else:
-            self._error.update(text)
+            self.error.update(text)
+            self.error.display = invalid and self._display

@@ -25,7 +25,7 @@ from ..fields import (
 )
 from ..messages import SheetChanged
 from .choice import Choice
-from .field_row import FieldRow
+from .field_row import FieldGrid, FieldRow
 
 DEBOUNCE_S = 0.12
 SHAFT_PREFIXES = ("shaft", "candidate")
@@ -50,12 +50,17 @@ class JobSheet(VerticalScroll, can_focus=False):
         self._timer: Timer | None = None
         self._loading = False
         self._shown_errors: dict[str, str] = {}
+        self._rows: dict[str, FieldRow] = {}
 
     def compose(self) -> ComposeResult:
+        """Each part: its title, one grid holding every label, control and hint, a spec line."""
+        self._rows = {}
         for section in SECTIONS:
             yield Static(section.title, classes="section-title", id=f"title-{section.id}")
-            for spec in section.fields:
-                yield FieldRow(spec)
+            with FieldGrid(classes="field-grid", id=f"fields-{section.id}"):
+                for spec in section.fields:
+                    row = self._rows[spec.key] = FieldRow(spec)
+                    yield from row.widgets()
             if section.id in SHAFT_PREFIXES:
                 yield Static("", classes="spec-line", id=f"spec-{section.id}")
 
@@ -65,8 +70,15 @@ class JobSheet(VerticalScroll, can_focus=False):
 
     # -- reading -------------------------------------------------------------------------------
     def row(self, key: str) -> FieldRow:
-        """The row of a sheet field."""
-        return self.query_one(f"#row-{key}", FieldRow)
+        """The row of a sheet field (``NoMatches`` for a key with no row)."""
+        try:
+            return self._rows[key]
+        except KeyError:
+            raise NoMatches(f"no sheet field {key!r}") from None
+
+    def invalid_keys(self) -> set[str]:
+        """The fields currently marked invalid."""
+        return {key for key, row in self._rows.items() if row.invalid}
 
     def value(self, key: str) -> str:
         """What is in a sheet field."""
