@@ -6,7 +6,6 @@ Sources: Timoshenko & Goodier, Theory of Elasticity, 3rd ed. (T&G): circle §104
 
 from __future__ import annotations
 
-import math
 
 import numpy as np
 import pytest

@@ -8,7 +8,7 @@ from functools import lru_cache
 from pathlib import Path
 
 import workbench
-from workbench.demo import DEMO_INPUTS, DEMO_META
+from workbench.demo import DEMO_INPUTS
 from workbench.job import evaluate_inputs
 
 # A handful of different jobs, as a fitter would type them.

@@ -378,7 +378,6 @@ def _solve(outer, holes, resolution: int) -> TorsionSolution:
     uniq, edge_index, edge_count = np.unique(codes, return_inverse=True, return_counts=True)
     n_edges = len(uniq)
     ea, eb = uniq // n_vert, uniq % n_vert
-    mid_points = 0.5 * (points[ea] + points[eb])
     n_el = len(tris)
     mids = (n_vert + edge_index).reshape(3, n_el).T  # element's midside nodes on edges 01, 12, 20
     conn = np.column_stack([tris, mids])  # 6 nodes per element
