@@ -6,7 +6,7 @@ DEMO_META = {
     "asset": "CV-07 head drive",
     "location": "Brindlemoor Quarry, crusher line 2",
     "by": "demo fitter",
-    "note": "Head pulley shaft sheared at the keyseat; replacement from square bar on the rack.",
+    "note": "Head pulley shaft worn at both bearing seats; square bar from the rack with square-bore hubs.",
 }
 
 DEMO_INPUTS = {
