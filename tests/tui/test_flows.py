@@ -245,6 +245,32 @@ async def test_review_choice_reopens_or_duplicates(make_app):
         assert app.job_screen.result is not None
 
 
+async def test_reopening_says_whether_todays_result_matches_the_stored_one(make_app, tmp_path):
+    """A reopened job is recomputed; a changed result is said plainly, with stored and today's figures."""
+    from workbench.demo import demo_inputs
+    from workbench.job import evaluate_inputs
+
+    inputs = demo_inputs()
+    result = evaluate_inputs(inputs)
+    altered = {**result, "verdict": "fail"}  # as if an older method had judged it otherwise
+    with JobLog.open(tmp_path / "jobs.sqlite3") as log:
+        same_id = log.save(inputs, result, asset="CV-07")
+        changed_id = log.save(inputs, altered, asset="CV-08")
+    app = make_app()
+    seen: list[str] = []
+    async with app.run_test(size=(120, 40)) as pilot:
+        app.notify = lambda message, **kwargs: seen.append(str(message))  # type: ignore[method-assign]
+        await settle(pilot)
+        app._reviewed({"action": "reopen", "job_id": same_id, "inputs": inputs})
+        await settle(pilot)
+        assert "matches the stored one" in seen[-1]
+        assert app.meta["asset"] == "CV-07"
+        app._reviewed({"action": "reopen", "job_id": changed_id, "inputs": inputs})
+        await settle(pilot)
+        assert "DIFFERS" in seen[-1] and "verdict" in seen[-1]
+        assert "fail" in seen[-1] and "pass" in seen[-1]  # both the stored and today's verdict are shown
+
+
 async def test_palette_offers_only_what_makes_sense(make_app):
     app = make_app()
     async with app.run_test(size=(120, 40)) as pilot:

@@ -160,16 +160,9 @@ class ShaftbenchApp(App):
 
     def action_review(self) -> None:
         """Open the job log; reopen or duplicate a saved job."""
-        try:
-            from .screens.review import ReviewScreen
-        except ImportError as err:
-            self.notify(f"Job log view not available ({err}).", severity="warning")
-            return
-        try:
-            screen = ReviewScreen(log_path=self.log_path)
-        except TypeError:
-            screen = ReviewScreen(self.log_path)
-        self.push_screen(screen, self._reviewed)
+        from .screens.review import ReviewScreen
+
+        self.push_screen(ReviewScreen(log_path=self.log_path), self._reviewed)
 
     def _reviewed(self, choice: dict[str, Any] | None) -> None:
         if not choice or "inputs" not in choice:
@@ -179,8 +172,31 @@ class ShaftbenchApp(App):
         if choice.get("action") == "duplicate":
             self.meta = {}
             self.notify(f"Copy of job {job_id} on the sheet; saving makes a new entry.")
+            return
+        self._report_reopen(job_id)
+
+    def _report_reopen(self, job_id: Any) -> None:
+        """Say plainly whether today's program gives the stored result (a method may have changed)."""
+        from workbench.store.log import JobLog, LogError
+
+        try:
+            with JobLog.open(self.log_path, create=False) as log:
+                reopened = log.reopen(int(job_id))
+        except (LogError, ValueError, TypeError) as err:
+            self.notify(f"Job {job_id} reopened; could not compare with the stored result: {err}", severity="warning")
+            return
+        record = reopened.record
+        self.meta = {"asset": record.asset, "location": record.location, "by": record.by, "note": record.note}
+        if reopened.error:
+            self.notify(f"Job {job_id} reopened, but today's program refuses it: {reopened.error}",
+                        severity="error", timeout=20)
+        elif reopened.differences:
+            lines = "\n".join(str(d) for d in reopened.differences[:6])
+            more = f"\n… and {len(reopened.differences) - 6} more" if len(reopened.differences) > 6 else ""
+            self.notify(f"Job {job_id} reopened — today's result DIFFERS from the stored one:\n{lines}{more}",
+                        severity="warning", timeout=30)
         else:
-            self.notify(f"Job {job_id} reopened.")
+            self.notify(f"Job {job_id} reopened — today's result matches the stored one.")
 
     def action_load_demo(self) -> None:
         """Put the demo job on the sheet."""
