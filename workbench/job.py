@@ -462,4 +462,10 @@ def stock_inputs(inputs: Mapping[str, str], profile: str, system: str = "metric"
     smallest = {}
     for key, row in smallest_passing(rows).items():
         smallest[key] = out_rows[rows.index(row)]
-    return {"profile": profile, "system": system, "rows": out_rows, "smallest": smallest, "cautions": list(CAUTIONS)}
+    with_journal = {}
+    if journal_needed is not None:
+        for row in out_rows:
+            if row["verdict"] == "pass" and row["gives_existing_journal"] and row["material"] not in with_journal:
+                with_journal[row["material"]] = row
+    return {"profile": profile, "system": system, "rows": out_rows, "smallest": smallest,
+            "smallest_with_existing_journal": with_journal, "cautions": list(CAUTIONS)}

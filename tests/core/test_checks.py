@@ -112,3 +112,17 @@ def test_substitute_inputs_lists_every_profile_both_bases():
         assert (profile, "strength") in kinds and (profile, "stiffness") in kinds
     assert all(row["label"].endswith("in") or " x " in row["label"] for row in result["equivalents"])
     assert result["cautions"]
+
+
+def test_stock_finder_names_the_smallest_bar_that_also_gives_the_existing_journals():
+    """A square of side a turns to journals of at most a (its inscribed circle): for a 40 mm round
+    as found, the journal-capable square is the first passing square of side >= 40 mm."""
+    inputs = {"torque": "150 N*m", "mount": "vbelt", "pitch_diameter": "200 mm", "overhang": "60 mm",
+              "shaft": "round 40mm keyed"}
+    result = stock_inputs(inputs, "square", "metric", ["1045-cd"])
+    smallest = result["smallest"]["1045-cd"]
+    journal = result["smallest_with_existing_journal"]["1045-cd"]
+    assert smallest["size_m"] < 0.040 and smallest["gives_existing_journal"] is False
+    assert journal["size_m"] >= 0.040 - 1e-12 and journal["verdict"] == "pass"
+    bigger_passing = [r for r in result["rows"] if r["verdict"] == "pass" and r["size_m"] >= 0.040 - 1e-12]
+    assert journal == bigger_passing[0]

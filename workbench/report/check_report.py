@@ -166,6 +166,11 @@ def render_stock(result: dict, system: str = "metric") -> Group:
         lines.append(f"smallest that passes in {key}: ")
         lines.append(best["spec"], style="bold")
         lines.append("\n")
+    for key, best in result.get("smallest_with_existing_journal", {}).items():
+        if best is not result["smallest"].get(key) and best["spec"] != result["smallest"].get(key, {}).get("spec"):
+            lines.append(f"smallest that passes and can be turned to the existing journals in {key}: ")
+            lines.append(best["spec"], style="bold")
+            lines.append("\n")
     if not result["smallest"]:
         lines.append("no stock size of this profile passes", style="bold red")
     if any(row["gives_existing_journal"] is False for row in result["rows"]):
