@@ -106,18 +106,14 @@ def build_parser() -> argparse.ArgumentParser:
 
 
 def _add_save_options(parser: argparse.ArgumentParser) -> None:
-    try:
-        from workbench.cli_log import add_save_options
-    except ImportError:  # the job log module is optional while it is being built
-        return
+    from workbench.cli_log import add_save_options
+
     add_save_options(parser)
 
 
 def _add_log_command(commands) -> None:
-    try:
-        from workbench.cli_log import add_log_command
-    except ImportError:
-        return
+    from workbench.cli_log import add_log_command
+
     add_log_command(commands)
 
 
@@ -227,22 +223,12 @@ def main(argv: list[str] | None = None) -> int:
         if isinstance(err, JobInputError):
             sys.stderr.write(f"shaftbench: {err}\n")
             return EXIT_BAD_INPUT
-        user_errors = _user_error_types()
-        if isinstance(err, user_errors):
+        from workbench.store.log import LogError
+
+        if isinstance(err, LogError):
             sys.stderr.write(f"shaftbench: {err}\n")
             return EXIT_BAD_INPUT
         raise
-
-
-def _user_error_types() -> tuple[type[BaseException], ...]:
-    types: list[type[BaseException]] = []
-    try:
-        from workbench.store.log import LogError
-
-        types.append(LogError)
-    except ImportError:
-        pass
-    return tuple(types)
 
 
 if __name__ == "__main__":

@@ -1,8 +1,8 @@
 """The workbench's only road to the calculation: the job contract in :mod:`workbench.job`.
 
 Everything heavy (pint, numpy, the core) is imported here lazily, on the first evaluation, which
-runs in a worker thread after the first paint. When a piece the workbench needs is missing the
-functions return a clear "not available" message instead of raising.
+runs in a worker thread after the first paint. Input errors come back as messages per field;
+anything else is a bug and raises.
 """
 
 from __future__ import annotations
@@ -18,19 +18,17 @@ class Evaluation:
 
     result:  the contract's result dict, or None when any field is invalid or the job is empty
     errors:  contract key -> one-line message, for every invalid field found
-    missing: a message when the calculation itself is not available (module not installed yet)
     elapsed_s: wall time of the evaluation
     """
 
     result: dict[str, Any] | None = None
     errors: dict[str, str] = field(default_factory=dict)
-    missing: str = ""
     elapsed_s: float = 0.0
 
     @property
     def ok(self) -> bool:
         """True when a result was computed from every field as typed."""
-        return self.result is not None and not self.errors and not self.missing
+        return self.result is not None and not self.errors
 
 
 def _job_module():
@@ -68,10 +66,7 @@ def evaluate(inputs: dict[str, str]) -> Evaluation:
     result computed with a stand-in is never returned (it is not what was typed).
     """
     started = time.perf_counter()
-    try:
-        job = _job_module()
-    except ImportError as err:
-        return Evaluation(missing=f"calculation not available ({err})")
+    job = _job_module()
     errors: dict[str, str] = {}
     trial = dict(inputs)
     result = None
@@ -99,13 +94,9 @@ def evaluate(inputs: dict[str, str]) -> Evaluation:
 
 def substitute(inputs: dict[str, str]) -> tuple[dict[str, Any] | None, str]:
     """Equal-strength / equal-stiffness sizes for the job (result, message-if-not)."""
+    job = _job_module()
     try:
-        job = _job_module()
-        fn = job.substitute_inputs
-    except (ImportError, AttributeError) as err:
-        return None, f"substitution not available ({err})"
-    try:
-        return fn(inputs), ""
+        return job.substitute_inputs(inputs), ""
     except job.JobInputError as err:
         return None, str(err)
 
@@ -114,37 +105,18 @@ def stock(
     inputs: dict[str, str], profile: str, system: str, materials: list[str]
 ) -> tuple[dict[str, Any] | None, str]:
     """Standard stock sizes that pass for the job (result, message-if-not)."""
+    job = _job_module()
     try:
-        job = _job_module()
-        fn = job.stock_inputs
-    except (ImportError, AttributeError) as err:
-        return None, f"stock finder not available ({err})"
-    try:
-        return fn(inputs, profile, system, materials), ""
+        return job.stock_inputs(inputs, profile, system, materials), ""
     except job.JobInputError as err:
         return None, str(err)
 
 
 def material_keys() -> list[str]:
-    """The material keys of the shop table, or [] when the table is not available yet."""
-    try:
-        from workbench.core.tables import materials
-    except ImportError:
-        return []
-    try:
-        rows = materials()
-    except Exception:  # a half-written table must not take the sheet down
-        return []
-    keys: list[str] = []
-    for row in rows if not isinstance(rows, dict) else rows.values():
-        key = row if isinstance(row, str) else getattr(row, "key", None)
-        if key is None and isinstance(row, dict):
-            key = row.get("key")
-        if key:
-            keys.append(str(key))
-    if isinstance(rows, dict) and not keys:
-        keys = [str(k) for k in rows]
-    return keys
+    """The material keys of the shop table (data/materials.csv), in file order."""
+    from workbench.core.tables import materials
+
+    return list(materials())
 
 
 def section_maps(specs: list[tuple[str, str]], cols: int, rows: int) -> list[dict[str, Any]]:
@@ -152,12 +124,10 @@ def section_maps(specs: list[tuple[str, str]], cols: int, rows: int) -> list[dic
 
     Dicts with role, spec, inside, tau_rel (0..1 of that section's own peak), method, error.
     """
+    from workbench.core.stress_map import shear_stress_map
+    from workbench.specs import parse_spec
+
     out: list[dict[str, Any]] = []
-    try:
-        from workbench.core.stress_map import shear_stress_map
-        from workbench.specs import parse_spec
-    except ImportError as err:
-        return [{"role": r, "spec": s, "error": f"section view not available ({err})"} for r, s in specs]
     for role, spec in specs:
         try:
             geometry = parse_spec(spec)
@@ -278,16 +248,12 @@ def section_view(inputs: dict[str, str], max_cols: int, max_rows: int) -> dict[s
     if not specs:
         view["message"] = "No shaft on the sheet yet."
         return view
-    try:
-        job = _job_module()
-        from workbench.core.profiles import profile_polygon
-        from workbench.core.stress_map import shear_stress_map
-        from workbench.core.torsion_solver import solve_torsion
-        from workbench.specs import parse_spec
-    except ImportError as err:
-        view["message"] = f"section view not available ({err})"
-        view["sections"] = [{"role": r, "spec": s, "error": view["message"]} for r, s in specs]
-        return view
+    job = _job_module()
+    from workbench.core.profiles import profile_polygon
+    from workbench.core.stress_map import shear_stress_map
+    from workbench.core.torsion_solver import solve_torsion
+    from workbench.specs import parse_spec
+
     result = None
     try:
         result = job.evaluate_inputs(inputs, solver=True)

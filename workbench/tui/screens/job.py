@@ -57,9 +57,7 @@ class JobScreen(Screen):
         system = getattr(app, "system", "metric")
         state = "no result yet"
         if self.evaluation is not None:
-            if self.evaluation.missing:
-                state = "calculation not available"
-            elif self.wrong:
+            if self.wrong:
                 n = len(self.wrong)
                 state = f"✗ {n} field{'s' if n > 1 else ''} to fix"
             elif self.needed:
@@ -105,9 +103,7 @@ class JobScreen(Screen):
         self.sheet.show_errors(wrong)
         system = getattr(self.app, "system", "metric")
         dimmed = " (last good result shown dimmed)" if self.panel.result is not None else ""
-        if evaluation.missing:
-            self.panel.mark_stale(f"✗ {evaluation.missing}")
-        elif wrong:
+        if wrong:
             self.panel.mark_stale(f"✗ not current — fix: {', '.join(sorted(wrong))}{dimmed}")
         elif needed:
             first = next(iter(needed.values()))
