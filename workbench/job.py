@@ -397,11 +397,11 @@ _STOCK_PROBE_SIZE_M = 0.03
 
 
 def _material_for_size(key: str):
-    def material_at(size_m: float) -> MaterialProps:
+    def material_at(size_m: float) -> MaterialProps | None:
         try:
             return parse_material("material", key, size_m)
-        except QuantityError:  # a size-ranged grade with no row for this size: use the nearest row
-            return parse_material("material", key, _STOCK_PROBE_SIZE_M)
+        except QuantityError:  # a size-ranged grade with no row for this bar size: no strength to check with
+            return None
 
     return material_at
 

@@ -126,3 +126,14 @@ def test_stock_finder_names_the_smallest_bar_that_also_gives_the_existing_journa
     assert journal["size_m"] >= 0.040 - 1e-12 and journal["verdict"] == "pass"
     bigger_passing = [r for r in result["rows"] if r["verdict"] == "pass" and r["size_m"] >= 0.040 - 1e-12]
     assert journal == bigger_passing[0]
+
+
+def test_stock_finder_never_borrows_strength_from_another_bar_size():
+    """EN 10083 C45 +QT strengths hold only up to 100 mm ruling section (shop data, steelmaker sheets):
+    larger stock is skipped for that grade, not checked with a smaller bar's (higher) strengths."""
+    inputs = {"torque": "500 N*m", "shaft": "round 60mm"}
+    result = stock_inputs(inputs, "round", "metric", ["c45-qt"])
+    sizes = [row["size_m"] for row in result["rows"]]
+    assert sizes and max(sizes) <= 0.100 + 1e-12
+    materials = {row["material"] for row in result["rows"]}
+    assert materials <= {"c45-qt-0-16", "c45-qt-16-40", "c45-qt-40-100"}

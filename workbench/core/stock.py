@@ -39,7 +39,7 @@ def stock_geometry(stock: StockSize, keyed: bool = False, finish: str = "machine
 def check_stock(
     profile: str,
     system: str,
-    materials: list[Callable[[float], MaterialProps]],
+    materials: list[Callable[[float], MaterialProps | None]],
     loads: DriveLoads,
     mount: Mount,
     settings: Settings,
@@ -49,13 +49,16 @@ def check_stock(
 ) -> list[StockRow]:
     """Every stock size of ``profile`` in ``system`` checked in each material, smallest first.
 
-    ``materials`` are functions of the bar size [m] (a grade's strength depends on its ruling section).
+    ``materials`` are functions of the bar size [m] (a grade's strength depends on its ruling section);
+    one that returns None has no strength for that size, which is then skipped for it, never guessed.
     """
     rows = []
     for stock in stock_sizes(profile, system):
         geometry = stock_geometry(stock, keyed, finish)
         for material_for in materials:
             mat = material_for(geometry.size_m)
+            if mat is None:
+                continue
             check = check_case(ShaftCase("candidate", geometry, mat), loads, mount, settings)
             rows.append(StockRow(stock, geometry, mat, check))
     return rows
