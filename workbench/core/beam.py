@@ -47,11 +47,11 @@ class BeamResult:
 
     x_m, deflection_m, slope_rad, moment_Nm: samples along the shaft (tuples of floats, every
     break point included), for drawing and for the largest values  [m], [m], [rad], [N m]
-    reactions_N: force of each support on the shaft, same order as ``supports_m``  [N]
+    reactions_N: force of each support on the shaft, bearings in order along the shaft  [N]
     deflection_at(x_m) / slope_at(x_m) / moment_at(x_m): exact values at any x on the shaft.
     """
 
-    supports_m: tuple[float, float]
+    supports_m: tuple[float, float]  # in order along the shaft
     reactions_N: tuple[float, float]
     _knots: tuple[float, ...] = field(repr=False)
     _y: tuple[float, ...] = field(repr=False)
