@@ -225,6 +225,10 @@ def _up_to_first_passes(rows: list[dict]) -> list[dict]:
 
 
 def run_workbench(args: argparse.Namespace) -> int:
+    if args.log is None:
+        from workbench.store.paths import default_log_path
+
+        default_log_path()  # an empty $SHAFTBENCH_LOG is refused before the workbench opens
     from workbench.tui.app import run
 
     return run(demo=args.demo, log_path=args.log)

@@ -334,18 +334,21 @@ def recheck_text(reopened: Any) -> Any:
 
 
 def _cmd_export(args: argparse.Namespace) -> int:
+    from contextlib import closing
+
     from workbench.store.exchange import write_csv, write_json
 
     writer = write_csv if args.format == "csv" else write_json
-    with _open(args) as log:
+    with _open(args) as log, closing(log.iter_export_rows()) as rows:  # rows end before the log
         if args.output:
             from workbench.safe_output import open_output
 
             with open_output(args.output) as out:
-                count = writer(log.iter_export_rows(), out)
+                count = writer(rows, out)
             print(f"exported {count} job{'s' if count != 1 else ''} to {args.output}", file=sys.stderr)
         else:
-            writer(log.iter_export_rows(), sys.stdout)
+            writer(rows, sys.stdout)
+            sys.stdout.flush()
     return EXIT_OK
 
 
