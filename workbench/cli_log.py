@@ -143,9 +143,12 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
     imp = command("import", "add the jobs of a CSV or JSON export (jobs already there are skipped)", _cmd_import)
     imp.add_argument("file", metavar="FILE")
 
-    card = command("card", "print or write the job card of a job", _cmd_card)
-    card.add_argument("id", type=job_id_arg, metavar="ID")
+    card = command("card", "print or write the job card of a job (html: a printable page, one page per job)",
+                   _cmd_card)
+    card.add_argument("id", type=job_id_arg, metavar="ID", nargs="+")
     card.add_argument("--format", choices=("html", "svg", "text"), default="text")
+    card.add_argument("--paper", choices=("a4", "letter"), default=None,
+                      help="html: fix the paper size (default: the printer's paper; the card fits both)")
     card.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
 
     delete = command("delete", "move a job to the bin (restore brings it back)", _cmd_delete)
@@ -365,11 +368,18 @@ def _cmd_import(args: argparse.Namespace) -> int:
 
 
 def _cmd_card(args: argparse.Namespace) -> int:
-    from workbench.report.jobcard import export_card, job_card_for_record
+    from workbench.report.jobcard import card_page_for_records, export_card, job_card_for_record
 
+    ids = list(dict.fromkeys(args.id))
+    if args.format == "svg" and len(ids) > 1:
+        return _fail("--format svg: one job a file (give one ID, or use --format html for several)")
     with _open(args) as log:
-        record = log.get(args.id)
-    _write_out(args, export_card(job_card_for_record(record), args.format))
+        records = [log.get(job_id) for job_id in ids]
+    if args.format == "html":
+        text = card_page_for_records(records, paper=args.paper)
+    else:
+        text = "\n".join(export_card(job_card_for_record(r), args.format) for r in records)
+    _write_out(args, text)
     return EXIT_OK
 
 
