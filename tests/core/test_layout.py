@@ -58,7 +58,7 @@ def test_torque_stops_at_the_driven_element():
     (Layout("overhung", 0.05, bearing_span_m=0.4, hub_length_m=0.12), "hub_length"),
     (Layout("overhung", 0.3, bearing_span_m=0.2, hub_length_m=0.5), "hub_length"),
     (Layout("between", 0.0, load_from_bearing_m=0.5, bearing_span_m=0.4), "load_from_bearing"),
-    (Layout("between", 0.0), "load_from_bearing"),
+    (Layout("between", 0.0), "element_position"),
     (Layout("overhung", 0.05, driven=DrivenElement("between", 0.1)), "bearing_span"),
     (Layout("overhung", 0.05, bearing_span_m=0.4, driven=DrivenElement("between", 0.5)), "driven_from_bearing"),
 ])

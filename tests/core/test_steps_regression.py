@@ -17,6 +17,11 @@ def test_uniform_round_without_layout_gives_the_recorded_figures(case):
     assert result["mount"]["side_load_N"] == case["mount"]["side_load_N"]
     assert result["mount"]["bending_moment_Nm"] == case["mount"]["bending_moment_Nm"]
     assert len(result["shafts"]) == len(case["shafts"])
+    alone = len(result["shafts"]) == 1
     for shaft, recorded in zip(result["shafts"], case["shafts"]):
+        if shaft["role"] == "candidate" and not alone:
+            # a larger round candidate is no longer uniform: it is turned to the existing journals and seat
+            assert shaft["governing_step"] is not None
+            continue
         for key, value in recorded.items():
             assert shaft[key] == value, (key, case["inputs"])

@@ -89,6 +89,10 @@ class ShaftCheck:
     steps: tuple = ()  # StepCheck items (workbench.core.step_checks), the shaft checked step by step
     governing_step: int | None = None  # index into ``steps`` whose figures the shaft's are
     notes: tuple[str, ...] = ()  # what the step check assumed (layout defaults, bounds used)
+    key: object = None  # KeyFigures of the hub-seat key (workbench.core.stiffness), when keyed
+    stiffness: object = None  # StiffnessFigures (deflection, slopes, critical speed), when the span is known
+    placed: object = None  # the layout placed along the shaft (workbench.core.layout.Placed)
+    side_loads: tuple = ()  # (x_m, force_N) side loads at the design torque, for the moment diagram
 
     @property
     def min_safety_factor(self) -> float:

@@ -56,7 +56,7 @@ def default_plan(geometry: ShaftGeometry) -> StepPlan:
 
 def check_case(
     case: ShaftCase, loads: DriveLoads, mount: Mount, settings: Settings, layout: Layout | None = None,
-    driven_load_N: float = 0.0,
+    driven_load_N: float = 0.0, E_Pa: float = 207e9, hub_material: str | None = None,
 ) -> ShaftCheck:
     """Section properties (keyseat size from the key tables when needed) and every check of one
     shaft, step by step along the layout (raises LayoutError for a layout that cannot be made)."""
@@ -68,7 +68,7 @@ def check_case(
     placed = place(layout, JOURNAL_LENGTH_PER_D * journal_guess)
     steps, notes = build_steps(plan, placed)
     return check_steps(steps, placed, section_for(g, key), case.material, loads, mount, settings,
-                       driven_load_N=driven_load_N, notes=tuple(notes))
+                       driven_load_N=driven_load_N, notes=tuple(notes), E_Pa=E_Pa, hub_material=hub_material)
 
 
 def compare(existing: ShaftCheck, candidate: ShaftCheck) -> Comparison:
@@ -84,10 +84,13 @@ def compare(existing: ShaftCheck, candidate: ShaftCheck) -> Comparison:
 
 def evaluate(
     loads: DriveLoads, mount: Mount, cases: list[ShaftCase], settings: Settings, layout: Layout | None = None,
-    driven_load_N: float = 0.0,
+    driven_load_N: float = 0.0, E_Pa=None, hub_material: str | None = None,
 ) -> tuple[list[ShaftCheck], Comparison | None]:
-    """Check every shaft; compare candidate with existing when both are given."""
-    checks = [check_case(case, loads, mount, settings, layout, driven_load_N) for case in cases]
+    """Check every shaft; compare candidate with existing when both are given.
+    ``E_Pa``: Young's modulus of each case's material [Pa] (a list; None = 207 GPa steel)."""
+    moduli = E_Pa or [207e9] * len(cases)
+    checks = [check_case(case, loads, mount, settings, layout, driven_load_N, e, hub_material)
+              for case, e in zip(cases, moduli)]
     roles = {case.role: check for case, check in zip(cases, checks)}
     comparison = None
     if "existing" in roles and "candidate" in roles:

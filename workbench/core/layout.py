@@ -58,7 +58,8 @@ class Layout:
     """The layout as given (None = not given).
 
     position:   "overhung" (today's case: beyond bearing 1) or "between" the bearings
-    overhang_m: overhung: bearing-1 centre to the element's load line [m]
+    overhang_m: overhung: bearing-1 centre to the element's load line [m]; None = the hub right
+                beside the bearing (a coupling: half the hub plus half the bearing width)
     load_from_bearing_m: between: bearing-1 centre to the element's load line [m]
     bearing_span_m: bearing centre to centre [m]
     bearing_type: key of data/bearing_slopes.csv, for the slope limit
@@ -68,7 +69,7 @@ class Layout:
     """
 
     position: str = "overhung"
-    overhang_m: float = 0.0
+    overhang_m: float | None = 0.0
     load_from_bearing_m: float | None = None
     bearing_span_m: float | None = None
     bearing_type: str | None = None
@@ -110,6 +111,8 @@ def place(layout: Layout, journal_length_m: float) -> Placed:
                                           f"({journal_length_m * 1000:g} mm)")
     if layout.position == "overhung":
         a = layout.overhang_m
+        if a is None:
+            a = (hub / 2.0 + half_j) if hub is not None else 0.0
         if hub is not None and hub / 2.0 > a:
             raise LayoutError("hub_length", f"a {hub * 1000:g} mm hub centred {a * 1000:g} mm from the bearing "
                                             "centre would run past the bearing (check --overhang)")
@@ -120,8 +123,8 @@ def place(layout: Layout, journal_length_m: float) -> Placed:
         b = layout.load_from_bearing_m
         if b is None:
             if span is None:
-                raise LayoutError("load_from_bearing", "is needed for an element between the bearings "
-                                                       "(or give --bearing-span to take it at mid-span)")
+                raise LayoutError("element_position", "between needs --load-from-bearing (bearing 1 to the "
+                                                      "element's load line) or --bearing-span (taken at mid-span)")
             b = span / 2.0
             notes.append("element between the bearings with no distance given: taken at mid-span, "
                          "where its moment is largest")

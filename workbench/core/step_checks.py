@@ -21,7 +21,7 @@ from dataclasses import dataclass, replace
 
 from workbench.core import fatigue
 from workbench.core.checks import (
-    MaterialProps, SectionFigures, Settings, ShaftCheck, _verdict, check_shaft, section_figures, static_torque_Nm,
+    MARGINAL_BAND, MaterialProps, SectionFigures, Settings, ShaftCheck, _verdict, check_shaft, section_figures, static_torque_Nm,
 )
 from workbench.core.drive import DriveLoads
 from workbench.core.layout import Placed, SideLoads, max_moment_Nm, point_loads, torque_fraction, GRAVITY_M_S2
@@ -29,6 +29,7 @@ from workbench.core.loads import Mount, side_load_N
 from workbench.core.sections import Section, section_for
 from workbench.core.shoulder_factors import shoulder_factors
 from workbench.core.steps import Step
+from workbench.core.stiffness import key_figures, layout_verdict, stiffness_figures
 from workbench.core.stress_raisers import stress_raisers
 from workbench.core.tables import key_for_diameter
 
@@ -81,7 +82,7 @@ def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, flo
     if step.kind == "shoulder" and step.larger_m > step.diameter_m * (1.0 + 1e-9):
         factors = shoulder_factors(step.larger_m, step.diameter_m, step.fillet_m, body_round=step.larger_round)
         rows.append(("shoulder", factors.Kt, factors.Kts, step.fillet_m))
-        notes.extend(f"{step.label}: {note}" for note in factors.notes)
+        notes.extend(note if "circumscribed" in note else f"{step.label}: {note}" for note in factors.notes)
     if step.feature_word in _WORDS:
         raiser = table[_WORDS[step.feature_word]]
         rows.append((raiser.feature, raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
@@ -109,6 +110,7 @@ def _section(step: Step, body_section: Section) -> Section:
 def check_steps(
     steps: list[Step], placed: Placed, body_section: Section, material: MaterialProps, loads: DriveLoads,
     mount: Mount, settings: Settings, driven_load_N: float = 0.0, notes: tuple[str, ...] = (),
+    E_Pa: float = 207e9, hub_material: str | None = None,
 ) -> ShaftCheck:
     """Every step checked; the ShaftCheck carries the governing step's figures and all the steps.
 
@@ -131,7 +133,7 @@ def check_steps(
     for step in steps:
         section = _section(step, body_section)
         feature, kt, kts, kf, kfs, step_notes = _features(step, section, material.tensile_Pa)
-        all_notes.extend(n for n in step_notes if n not in all_notes)
+        all_notes.extend(n for n in step_notes if n not in all_notes)  # each fact once
         share = torque_fraction(placed, step.check_from_m, step.check_to_m)
         m_design = max_moment_Nm(placed, forces_design, step.check_from_m, step.check_to_m)
         m_static = max_moment_Nm(placed, forces_static, step.check_from_m, step.check_to_m)
@@ -144,6 +146,18 @@ def check_steps(
     fig = gov.figures
     verdict, governing, why = _verdict(fig.static_sf, fig.fatigue_sf, base.twist_deg_per_m,
                                        base.twist_limit_deg_per_m, gov.where, settings)
+    key = _key(checks, placed, material, static_T, hub_material, settings)
+    masses = [(placed.load_x_m, layout.element_mass_kg)]
+    if layout.driven is not None:
+        masses.append((placed.driven_x_m, layout.driven.mass_kg))
+    stiffness = stiffness_figures(steps, placed, forces_design, masses, E_Pa, material.density_kg_m3,
+                                  layout.bearing_type)
+    if stiffness is not None:
+        all_notes.extend(n for n in stiffness.notes if n not in all_notes)
+    if key is not None:
+        all_notes.extend(n for n in key.notes if n not in all_notes)
+    verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
+                                             stiffness, loads.shaft_speed_rpm)
     methods = dict(base.methods)
     methods["steps"] = ("each step at its own moment and torque; shoulders by Peterson's SCF 3rd ed. Charts "
                         "3.10/3.12 fits; keyseat by Shigley 9th ed. Table 7-1; the weakest step governs")
@@ -172,4 +186,21 @@ def check_steps(
         steps=tuple(checks),
         governing_step=index,
         notes=tuple(all_notes),
+        key=key,
+        stiffness=stiffness,
+        placed=placed,
+        side_loads=tuple(forces_design),
     )
+
+
+def _key(checks: list[StepCheck], placed: Placed, material: MaterialProps, torque_Nm: float,
+         hub_material: str | None, settings: Settings):
+    """The key of the keyed hub seat at the static-check torque (the largest), or None if not keyed.
+    The key is taken of the shaft's own steel (common practice when the key stock is not known)."""
+    seat = next((c for c in checks if c.step.kind == "seat" and c.step.keyed), None)
+    if seat is None:
+        return None
+    g = seat.step.geometry
+    row = key_for_diameter(g.size_m, g.key_standard)
+    return key_figures(torque_Nm, g, row, placed.layout.hub_length_m, material.yield_Pa, material.yield_Pa,
+                       hub_material, settings.required_sf)

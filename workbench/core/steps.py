@@ -140,10 +140,11 @@ def _check_turn(plan: StepPlan, d_m: float, field: str, what: str) -> None:
                                  f"{body.second_m * 1000:g} mm bore")
     if not can_turn(body, d_m):
         need = d_m + JOURNAL_UPPER_DEVIATION_M + clean_up_allowance_m(d_m)
+        option = {"journal": "--journal", "seat": "--seat"}.get(field, f"--candidate-{what}")
         raise LayoutError(field, f"a {body.profile} {body.size_m * 1000:g} mm bar cannot give a "
                                  f"{d_m * 1000:g} mm {what}: it needs at least {need * 1000:.2f} mm inscribed "
                                  f"(upper limit + {clean_up_allowance_m(d_m) * 1000:g} mm clean-up); "
-                                 "give a smaller --candidate-journal/--candidate-seat, a larger bar, "
+                                 f"give a smaller {option}, a larger bar, "
                                  "or --as-bar for square-bore bearings and hubs")
 
 
@@ -197,13 +198,17 @@ def build_steps(plan: StepPlan, placed: Placed) -> tuple[list[Step], list[str]]:
     def fillet_for(d_m: float) -> float:
         return fillet_given if fillet_given is not None else DEFAULT_FILLET_PER_D * d_m
 
-    def shoulder(x: float, d_m: float, label: str, lo: float, hi: float, keyed: bool, word: str = "none"):
-        if _same(d_m, larger) and round_body and word == "none":
+    def shoulder(x: float, d_m: float, label: str, lo: float, hi: float, keyed: bool, word: str = "none",
+                 big_m: float | None = None, big_round: bool | None = None):
+        """A shoulder from the larger part (the body unless ``big_m``) down to ``d_m`` at x."""
+        big = larger if big_m is None else big_m
+        big_is_round = round_body if big_round is None else big_round
+        stepped = not (_same(d_m, big) and big_is_round)
+        if not stepped and word == "none":
             return
-        stepped = not (_same(d_m, larger) and round_body)
         steps.append(Step("shoulder", label, x, x, d_m, _turned(body, d_m, keyed), lo, hi,
                           fillet_m=fillet_for(d_m) if stepped else 0.0, keyed=keyed,
-                          larger_m=larger if stepped else d_m, larger_round=round_body, feature_word=word))
+                          larger_m=big if stepped else d_m, larger_round=big_is_round, feature_word=word))
 
     seat_lo, seat_hi = placed.seat_m
     check_lo, check_hi = placed.seat_check_m
@@ -221,11 +226,15 @@ def build_steps(plan: StepPlan, placed: Placed) -> tuple[list[Step], list[str]]:
     if overhung:
         steps.append(seat_step)
         # the seat's inboard end: a shoulder to the body (or the typed stress raiser), taken where the seat is
-        shoulder(seat_hi, seat, "shoulder at the hub seat", check_hi, check_hi, keyed, word)
         if seat_hi < b1 - half_j - 1e-9:
+            shoulder(seat_hi, seat, "shoulder at the hub seat", check_hi, check_hi, keyed, word)
             steps.append(Step("body", "body between hub and bearing 1", seat_hi, b1 - half_j, inscribed, body,
                               seat_hi, b1 - half_j))
-        shoulder(b1 - half_j, journal, "shoulder at bearing 1 (outboard)", b1 - half_j, b1, False)
+            shoulder(b1 - half_j, journal, "shoulder at bearing 1 (outboard)", b1 - half_j, b1, False)
+        else:  # the seat runs into the journal: a shoulder only where their diameters differ
+            small, big = sorted((seat, journal))
+            shoulder(seat_hi, small, "shoulder at the hub seat", check_hi, max(check_hi, b1 - half_j),
+                     keyed and _same(small, seat), word, big_m=big, big_round=True)
         steps.append(journal1)
         shoulder(b1 + half_j, journal, "shoulder at bearing 1", b1, b1 + half_j, False)
         body_end = (b2 - half_j) if b2 is not None else end
