@@ -36,6 +36,9 @@ INPUT_KEYS = (
     "power", "speed", "torque", "ratio", "efficiency", "service_factor", "peak_factor",
     "mount", "pitch_diameter", "overhang", "shaft", "candidate", "material", "candidate_material",
     "required_sf", "criterion", "reliability", "twist_limit",
+    # the turning sheet (workbench/turning_job.py)
+    "bearing", "bearing_mounting", "rotating_ring", "bearing_load", "journal_class", "seat_class", "key_fit",
+    "turning_sheets",
 )
 DEFAULT_MATERIAL = "1045-cd"
 MOUNT_ALIASES = {
@@ -245,6 +248,9 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
         "verdict": shafts[-1]["verdict"],
         "cautions": list(CAUTIONS),
     }
+    from workbench.turning_job import attach_turning
+
+    attach_turning(result, inputs)
     return result
 
 
