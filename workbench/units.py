@@ -4,7 +4,9 @@ Everything a person types (``7.5 kW``, ``1-1/4 in``, ``1 1/4"``, ``1450 rpm``) i
 turned into an SI float for the core. Nothing inside :mod:`workbench.core` uses pint.
 
 The registry is built on first use (``registry()``), with pint's on-disk definition cache, so that
-``shaftbench --help`` and the import of the core never pay for it.
+``shaftbench --help`` and the import of the core never pay for it. Common spellings (``mm``,
+``kW``, ``rpm``, ``N*m``, ...) are answered from a table made from pint (:mod:`workbench.unit_table`)
+and pint is imported only for the others; every refusal still holds (see that module).
 """
 
 from __future__ import annotations
@@ -13,6 +15,8 @@ import math
 import re
 from dataclasses import dataclass
 from functools import cache
+
+from workbench.unit_table import si_factor
 
 
 class QuantityError(ValueError):
@@ -127,6 +131,21 @@ def parse_quantity(
     if not math.isfinite(value):
         raise QuantityError(field, f"{text!r} is not a finite number")
     unit_text = unit_text or default_unit
+    factor = si_factor(kind, unit_text)  # a common spelling, from the table made from pint
+    si = value * factor if factor is not None else _pint_si(field, text, value, unit_text, kind)
+    if not math.isfinite(si):
+        raise QuantityError(field, f"{text!r} is not a finite number")
+    if si < 0 or (si == 0 and not allow_zero):
+        raise QuantityError(field, f"must be greater than zero (got {text!r})")
+    if low is not None and si < low:
+        raise QuantityError(field, f"{text!r} is too small; expected at least {format_si(low, kind)}")
+    if high is not None and si > high:
+        raise QuantityError(field, f"{text!r} is too large; expected at most {format_si(high, kind)}")
+    return si
+
+
+def _pint_si(field: str, text: str, value: float, unit_text: str, kind: Kind) -> float:
+    """``value`` in ``unit_text`` read by pint, checked to be a ``kind``, in the kind's SI unit."""
     ureg = registry()
     try:
         units = ureg.parse_units(unit_text)
@@ -139,16 +158,7 @@ def parse_quantity(
         raise QuantityError(
             field, f"{text!r} is not a {kind.name}; expected a {kind.name} such as {kind.examples}"
         )
-    si = _to_si(quantity, kind)
-    if not math.isfinite(si):
-        raise QuantityError(field, f"{text!r} is not a finite number")
-    if si < 0 or (si == 0 and not allow_zero):
-        raise QuantityError(field, f"must be greater than zero (got {text!r})")
-    if low is not None and si < low:
-        raise QuantityError(field, f"{text!r} is too small; expected at least {format_si(low, kind)}")
-    if high is not None and si > high:
-        raise QuantityError(field, f"{text!r} is too large; expected at most {format_si(high, kind)}")
-    return si
+    return _to_si(quantity, kind)
 
 
 def _to_si(quantity, kind: Kind) -> float:
