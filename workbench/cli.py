@@ -48,9 +48,21 @@ class _Parser(argparse.ArgumentParser):
     """argparse that reports a usage error in one line and exits 2."""
 
     def error(self, message: str) -> None:  # noqa: D102 - argparse hook
-        sys.stderr.write(f"shaftbench: {message} (see shaftbench {self.prog.split()[-1]} --help)\n"
-                         if " " in self.prog else f"shaftbench: {message} (see shaftbench --help)\n")
+        from workbench.cli_log import MESSAGE_LIMIT, cut
+
+        # self.prog is the whole command ("shaftbench log show"), so the hint names the right help.
+        message = cut(" ".join(message.split()), MESSAGE_LIMIT)
+        sys.stderr.write(f"shaftbench: {message} (see {self.prog} --help)\n")
         raise SystemExit(EXIT_BAD_INPUT)
+
+    def parse_args(self, args=None, namespace=None):  # noqa: D102 - argparse hook
+        # Unknown options are reported by the subcommand that was chosen, so the hint names its help.
+        parsed, extras = self.parse_known_args(args, namespace)
+        if extras:
+            words = [self.prog, getattr(parsed, "command", None), getattr(parsed, "log_command", None)]
+            self.prog = " ".join(w for w in words if w)
+            self.error(f"unrecognized arguments: {' '.join(extras)}")
+        return parsed
 
 
 def _add_job_options(parser: argparse.ArgumentParser, only: tuple[str, ...] | None = None) -> None:
@@ -74,7 +86,8 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"shaftbench {__version__}")
     parser.add_argument("--demo", action="store_true", help="open the workbench on the demo job")
-    parser.add_argument("--log", metavar="PATH", help="job log file (default: $SHAFTBENCH_LOG or the user data dir)")
+    parser.add_argument("--log", metavar="PATH", type=_log_path_arg,
+                        help="job log file (default: $SHAFTBENCH_LOG or the user data dir)")
     commands = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
 
     check = commands.add_parser("check", help="check the shaft as found and/or a candidate")
@@ -103,6 +116,12 @@ def build_parser() -> argparse.ArgumentParser:
 
     _add_log_command(commands)
     return parser
+
+
+def _log_path_arg(text: str) -> str:
+    from workbench.cli_log import log_path_arg
+
+    return log_path_arg(text)
 
 
 def _add_save_options(parser: argparse.ArgumentParser) -> None:
@@ -206,6 +225,10 @@ def _up_to_first_passes(rows: list[dict]) -> list[dict]:
 
 
 def run_workbench(args: argparse.Namespace) -> int:
+    if args.log is None:
+        from workbench.store.paths import default_log_path
+
+        default_log_path()  # an empty $SHAFTBENCH_LOG is refused before the workbench opens
     from workbench.tui.app import run
 
     return run(demo=args.demo, log_path=args.log)
@@ -216,17 +239,27 @@ def main(argv: list[str] | None = None) -> int:
     args = parser.parse_args(argv)
     func = getattr(args, "func", None) or run_workbench
     try:
-        return func(args)
-    except Exception as err:  # user-caused errors are messages; anything else is our bug
-        from workbench.job import JobInputError
+        code = func(args)
+        sys.stdout.flush()  # a closed pipe or full disk shows here, not as "Exception ignored" at exit
+        return code
+    except BrokenPipeError:  # the reader went away (`| head`): nothing to say
+        from workbench.cli_log import stdout_closed
 
-        if isinstance(err, JobInputError):
-            sys.stderr.write(f"shaftbench: {err}\n")
-            return EXIT_BAD_INPUT
+        return stdout_closed()
+    except Exception as err:  # user-caused errors are messages; anything else is our bug
+        from workbench.cli_log import MESSAGE_LIMIT, cut, stdout_closed
+        from workbench.job import JobInputError
         from workbench.store.log import LogError
 
-        if isinstance(err, LogError):
-            sys.stderr.write(f"shaftbench: {err}\n")
+        if isinstance(err, (JobInputError, LogError)):
+            sys.stderr.write(f"shaftbench: {cut(' '.join(str(err).split()), MESSAGE_LIMIT)}\n")
+            return EXIT_BAD_INPUT
+        if isinstance(err, OSError) and err.errno is not None:
+            from workbench.safe_output import describe_os_error
+
+            stdout_closed()
+            where = err.filename if getattr(err, "filename", None) else "the output"
+            sys.stderr.write(f"shaftbench: cannot write {where}: {describe_os_error(err)}\n")
             return EXIT_BAD_INPUT
         raise
 

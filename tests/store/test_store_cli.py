@@ -16,10 +16,13 @@ ODD = "[bold]P-1[/] [/]"
 
 
 def run(argv: list[str]) -> int:
-    parser = argparse.ArgumentParser(prog="shaftbench")
-    add_log_command(parser.add_subparsers(dest="command"))
-    args = parser.parse_args(argv)
-    return args.func(args)
+    """The whole command line (usage errors exit 2 through SystemExit, as from the shell)."""
+    from workbench.cli import main
+
+    try:
+        return main(argv)
+    except SystemExit as exit_:
+        return int(exit_.code or 0)
 
 
 @pytest.fixture

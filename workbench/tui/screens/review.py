@@ -379,15 +379,18 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
 
     @work(thread=True, group="review-write")
     def _write_card(self, record: Any, path: Path) -> None:
-        from workbench.report.jobcard import export_card, job_card_for_record
+        from workbench.report.jobcard import card_page_for_records, export_card, job_card_for_record
+        from workbench.safe_output import OutputError, write_output
 
         fmt = CARD_SUFFIXES.get(path.suffix.lower(), "text")
         try:
-            path.write_text(export_card(job_card_for_record(record), fmt), encoding="utf-8")
-        except OSError as err:
-            self.app.call_from_thread(self.notify, f"Cannot write {path}: {err.strerror or err}", severity="error")
+            text = (card_page_for_records([record]) if fmt == "html"
+                    else export_card(job_card_for_record(record), fmt))
+            write_output(path, text)
+        except OutputError as err:
+            self.app.call_from_thread(self.notify, str(err), severity="error", markup=False)
             return
-        self.app.call_from_thread(self.notify, f"Card of job {record.id} written to {path}.")
+        self.app.call_from_thread(self.notify, f"Card of job {record.id} written to {path}.", markup=False)
 
     def action_recheck(self) -> None:
         record = self.current()
