@@ -24,7 +24,7 @@ from workbench.core.checks import (
     MARGINAL_BAND, MaterialProps, SectionFigures, Settings, ShaftCheck, _verdict, check_shaft, section_figures, static_torque_Nm,
 )
 from workbench.core.drive import DriveLoads
-from workbench.core.layout import Placed, SideLoads, max_moment_Nm, point_loads, torque_fraction, GRAVITY_M_S2
+from workbench.core.layout import GRAVITY_M_S2, MomentLine, Placed, SideLoads, point_loads, torque_fraction
 from workbench.core.loads import Mount, side_load_N
 from workbench.core.sections import Section, section_for
 from workbench.core.shoulder_factors import shoulder_factors
@@ -128,15 +128,20 @@ def check_steps(
     pull_static = side_load_N(static_T, mount.pitch_diameter_m, mount.load_factor)
     forces_design = point_loads(placed, SideLoads(pull_design, weight, driven))
     forces_static = point_loads(placed, SideLoads(pull_static, weight, driven))
+    line_design = MomentLine(placed, forces_design)
+    line_static = MomentLine(placed, forces_static)
     checks: list[StepCheck] = []
     all_notes = list(placed.notes) + list(notes)
+    sections: dict = {}  # journals, seats and shoulders of one size share one section
     for step in steps:
-        section = _section(step, body_section)
+        section = sections.get(step.geometry) if step.kind != "body" else body_section
+        if section is None:
+            section = sections[step.geometry] = _section(step, body_section)
         feature, kt, kts, kf, kfs, step_notes = _features(step, section, material.tensile_Pa)
         all_notes.extend(n for n in step_notes if n not in all_notes)  # each fact once
         share = torque_fraction(placed, step.check_from_m, step.check_to_m)
-        m_design = max_moment_Nm(placed, forces_design, step.check_from_m, step.check_to_m)
-        m_static = max_moment_Nm(placed, forces_static, step.check_from_m, step.check_to_m)
+        m_design = line_design.max_over(step.check_from_m, step.check_to_m)
+        m_static = line_static.max_over(step.check_from_m, step.check_to_m)
         t_design, t_static = share * loads.design_torque_Nm, share * static_T
         figures = section_figures(section, material, kf, kfs, t_design, t_static, m_design, m_static, settings)
         checks.append(StepCheck(step, section, m_design, m_static, t_design, t_static, feature, kt, kts, kf, kfs,
