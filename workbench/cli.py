@@ -5,6 +5,7 @@
     shaftbench substitute --shaft SPEC [--json]
     shaftbench stock --profile square [--system metric] [--materials a,b] [job options] [--json]
     shaftbench log ...                      the job log (list, show, export, import, card, ...)
+    shaftbench fit SIZE CLASS [--measured LEN ...] [--json]   ISO 286 limits and fits (cli_fit.py)
 
 Exit codes: 0 computed, 2 bad input (one line on stderr, never a traceback).
 Nothing heavy is imported at module level: ``--help`` and ``--version`` build no unit registry.
@@ -60,6 +61,15 @@ JOB_OPTIONS = (
     ("--driven-mass", "driven_mass", "mass of the driven element (bare: kg)"),
     ("--driven-load", "driven_load", "radial load of the driven element besides its weight (bare: N)"),
     ("--hub-material", "hub_material", "hub material for key crushing: steel (default), steel-s355, cast-iron-200, ..."),
+    # the turning sheet (workbench/turning_job.py)
+    ("--bearing", "bearing", "bearing designation (ISO 15), e.g. 6208 or 22210: journal length, fit, fillet limit"),
+    ("--bearing-mounting", "bearing_mounting", "pressed (default) | adapter-sleeve | insert (set-screw or eccentric-collar unit)"),
+    ("--rotating-ring", "rotating_ring", "ring that turns relative to the load: inner (default) | outer"),
+    ("--bearing-load", "bearing_load", "light | normal (default) | heavy, as a share of the bearing's rating"),
+    ("--journal-class", "journal_class", "journal class instead of the recommended one, e.g. k6"),
+    ("--seat-class", "seat_class", "hub seat class instead of the recommended one, e.g. j6"),
+    ("--key-fit", "key_fit", "keyseat width fit: free | normal (default) | tight (DIN 6885-1)"),
+    ("--turning-sheets", "turning_sheets", "sheets the report prints: candidate (default) | existing | both"),
 )
 
 
@@ -140,6 +150,9 @@ def build_parser() -> argparse.ArgumentParser:
     stock.set_defaults(func=run_stock)
 
     _add_log_command(commands)
+    from workbench.cli_fit import add_fit_command
+
+    add_fit_command(commands)
     return parser
 
 

@@ -42,6 +42,9 @@ INPUT_KEYS = (
     "bearing_span", "bearing_type", "element_position", "load_from_bearing", "hub_length", "element_mass",
     "journal", "seat", "fillet", "candidate_journal", "candidate_seat", "candidate_fillet",
     "driven_position", "driven_from_bearing", "driven_mass", "driven_load", "as_bar", "hub_material",
+    # the turning sheet (workbench/turning_job.py)
+    "bearing", "bearing_mounting", "rotating_ring", "bearing_load", "journal_class", "seat_class", "key_fit",
+    "turning_sheets",
 )
 DEFAULT_MATERIAL = "1045-cd"
 MOUNT_ALIASES = {
@@ -257,6 +260,9 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
     }
     result["layout"] = layout_dict(layout_in, checks[-1])
     result["moment_diagram"] = moment_diagram_dict(checks[-1], loads)
+    from workbench.turning_job import attach_turning
+
+    attach_turning(result, inputs)
     return result
 
 
