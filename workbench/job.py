@@ -240,7 +240,7 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
             "pitch_diameter_m": mount.pitch_diameter_m,
             "overhang_m": mount.overhang_m,
             "side_load_N": checks[0].side_load_N,
-            "bending_moment_Nm": checks[0].bending_moment_Nm,
+            "bending_moment_Nm": max((c.bending_moment_Nm for c in checks[0].steps), default=checks[0].bending_moment_Nm),
             "source": mount_factors()[mount.element].source,
         },
         "settings": {
@@ -372,7 +372,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
     Needs only ``shaft`` (and optionally ``candidate`` for its journal fact); returns
     ``{"existing": {...}, "equivalents": [...], "fit_facts": [...], "cautions": [...]}``.
     """
-    from workbench.core.substitution import equivalents, fit_facts
+    from workbench.core.substitution import HOLDS_FOR, equivalents, fit_facts
     from workbench.specs import format_spec
 
     try:
@@ -397,6 +397,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
             "stiffness_ratio": eq.stiffness_ratio,
             "mass_ratio": eq.mass_ratio,
             "next_stock": None if stock is None else format_spec(stock, system),
+            "holds_for_step": HOLDS_FOR,
         })
     return {
         "existing": {"spec": spec, "profile": existing.profile, "size_m": existing.size_m},
