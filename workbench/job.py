@@ -258,6 +258,9 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
         "verdict": shafts[-1]["verdict"],
         "cautions": list(CAUTIONS),
     }
+    warnings = result.setdefault("warnings", [])
+    for check in checks:
+        warnings.extend(w for w in check.assumptions if w not in warnings)
     result["layout"] = layout_dict(layout_in, checks[-1])
     result["moment_diagram"] = moment_diagram_dict(checks[-1], loads)
     from workbench.turning_job import attach_turning
@@ -320,7 +323,7 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "governing": check.governing,
         "why": check.why,
         "methods": check.methods,
-        "notes": _material_notes(case) + [n for n in check.notes],
+        "notes": _material_notes(case),
         **step_fields(check),
     }
 

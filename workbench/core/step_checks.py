@@ -82,7 +82,7 @@ def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, flo
     if step.kind == "shoulder" and step.larger_m > step.diameter_m * (1.0 + 1e-9):
         factors = shoulder_factors(step.larger_m, step.diameter_m, step.fillet_m, body_round=step.larger_round)
         rows.append(("shoulder", factors.Kt, factors.Kts, step.fillet_m))
-        notes.extend(note if "circumscribed" in note else f"{step.label}: {note}" for note in factors.notes)
+        notes.extend(f"shoulder {note}" if note.startswith(("bending", "torsion")) else note for note in factors.notes)
     if step.feature_word in _WORDS:
         raiser = table[_WORDS[step.feature_word]]
         rows.append((raiser.feature, raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
@@ -131,7 +131,8 @@ def check_steps(
     line_design = MomentLine(placed, forces_design)
     line_static = MomentLine(placed, forces_static)
     checks: list[StepCheck] = []
-    all_notes = list(placed.notes) + list(notes)
+    all_notes = list(notes)
+    assumptions = list(placed.notes)
     sections: dict = {}  # journals, seats and shoulders of one size share one section
     for step in steps:
         section = sections.get(step.geometry) if step.kind != "body" else body_section
@@ -158,9 +159,10 @@ def check_steps(
     stiffness = stiffness_figures(steps, placed, forces_design, masses, E_Pa, material.density_kg_m3,
                                   layout.bearing_type)
     if stiffness is not None:
-        all_notes.extend(n for n in stiffness.notes if n not in all_notes)
+        assumptions.extend(n for n in stiffness.notes if n not in assumptions)
     if key is not None:
-        all_notes.extend(n for n in key.notes if n not in all_notes)
+        assumptions.extend(n for n in key.notes if n.startswith("no hub length") and n not in assumptions)
+        all_notes.extend(n for n in key.notes if not n.startswith("no hub length") and n not in all_notes)
     verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
                                              stiffness, loads.shaft_speed_rpm)
     methods = dict(base.methods)
@@ -191,6 +193,7 @@ def check_steps(
         steps=tuple(checks),
         governing_step=index,
         notes=tuple(all_notes),
+        assumptions=tuple(assumptions),
         key=key,
         stiffness=stiffness,
         placed=placed,

@@ -53,5 +53,7 @@ def steps_panels(result: dict, system: str = "metric") -> list:
         body.add_row(table)
         if line:
             body.add_row(Text(line))
+        for note in shaft.get("steps_notes") or []:
+            body.add_row(Text(f"note: {note}", style="yellow"))
         panels.append(Panel(body, title=f"Steps: {shaft['role']} {shaft['spec']}", title_align="left"))
     return panels
