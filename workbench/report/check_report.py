@@ -96,6 +96,9 @@ def render_check(result: dict, system: str = "metric") -> Group:
             f"stiffness {comparison['stiffness_ratio']:.2f}x, mass {comparison['mass_ratio']:.2f}x"
         )
     parts.append(summary)
+    from workbench.report.steps_report import steps_panels
+
+    parts.extend(steps_panels(result, system))
     for shaft in result["shafts"]:
         solved = shaft.get("keyseat_solver")
         if solved:
@@ -128,13 +131,16 @@ def methods_panel(result: dict) -> Panel:
     settings = result["settings"]
     lines.append("verdict: ", style="dim")
     lines.append(f"required safety factor {settings['required_sf']:g}; reliability {settings['reliability']:g}; "
-                 "marginal = within 10 % above the required factor, or twist over its limit")
+                 "marginal = within 10 % above the required factor, or twist over its limit; key factors count like "
+                 "the others; a bearing slope over its limit or running at 75 % of the first critical speed is "
+                 "marginal, over twice the slope limit or at 90 % fails")
     return Panel(lines, title="Methods and sources", title_align="left", border_style="dim")
 
 
 def render_substitution(result: dict, system: str = "metric") -> Group:
     """Equivalent bars for the shaft as found, with their ratios and the fit facts."""
-    table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material)"))
+    table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material; "
+                             "figures for the body step)"))
     for name in ("profile", "basis", "size", "strength", "stiffness", "mass", "next stock up"):
         table.add_column(name)
     for row in result["equivalents"]:
@@ -156,9 +162,10 @@ def render_stock(result: dict, system: str = "metric") -> Group:
         journal = fmt.length(row["largest_journal_m"], system)
         if row["gives_existing_journal"] is False:
             journal += " *"
+        governing = row["governing"] + (f" at {row['governing_step_label']}" if row.get("governing_step_label") else "")
         table.add_row(
             Text(row["label"]), row["material"], verdict_text(row["verdict"]),
-            fmt.factor(row["min_safety_factor"]), row["governing"], fmt.mass_per_length(row["mass_kg_per_m"], system),
+            fmt.factor(row["min_safety_factor"]), Text(governing), fmt.mass_per_length(row["mass_kg_per_m"], system),
             journal,
         )
     lines = Text()
