@@ -5,6 +5,7 @@
     shaftbench substitute --shaft SPEC [--json]
     shaftbench stock --profile square [--system metric] [--materials a,b] [job options] [--json]
     shaftbench log ...                      the job log (list, show, export, import, card, ...)
+    shaftbench fit SIZE CLASS [--measured LEN ...] [--json]   ISO 286 limits and fits (cli_fit.py)
 
 Exit codes: 0 computed, 2 bad input (one line on stderr, never a traceback).
 Nothing heavy is imported at module level: ``--help`` and ``--version`` build no unit registry.
@@ -41,6 +42,34 @@ JOB_OPTIONS = (
     ("--criterion", "criterion", "fatigue criterion: goodman (default), gerber, asme-elliptic, soderberg"),
     ("--reliability", "reliability", "fatigue reliability, e.g. 0.9 (default) or 99%%"),
     ("--twist-limit", "twist_limit", "allowed twist, e.g. '0.25 deg/m' (default 1 deg over 20 diameters)"),
+    # the layout and the steps of the shaft (README "Layout and steps")
+    ("--bearing-span", "bearing_span", "bearing centre to centre (bare: mm); without it no deflection, slope or critical speed"),
+    ("--bearing-type", "bearing_type", "for the slope limit: deep-groove-ball (default), self-aligning-ball, spherical-ball, "
+                                       "spherical-roller, cylindrical-roller, tapered-roller"),
+    ("--element-position", "element_position", "overhung (default, beyond bearing 1 at --overhang) | between the bearings"),
+    ("--load-from-bearing", "load_from_bearing", "between: bearing 1 centre to the element's load line (bare: mm)"),
+    ("--hub-length", "hub_length", "hub length of the element = its seat and key length (bare: mm)"),
+    ("--element-mass", "element_mass", "mass of the element (bare: kg); its weight adds to the side load"),
+    ("--journal", "journal", "bearing journal diameter of the shaft as found (default: uniform)"),
+    ("--seat", "seat", "hub seat diameter of the shaft as found (default: uniform)"),
+    ("--fillet", "fillet", "shoulder fillet radius of the shaft as found (default r/d 0.02)"),
+    ("--candidate-journal", "candidate_journal", "journal the candidate is turned to (default: the existing journal)"),
+    ("--candidate-seat", "candidate_seat", "hub seat the candidate is turned to (default: the existing seat)"),
+    ("--candidate-fillet", "candidate_fillet", "shoulder fillet radius of the candidate (default r/d 0.02, the minimum to cut)"),
+    ("--driven-position", "driven_position", "a driven element on the shaft: between (the bearings) | far-end (beyond bearing 2)"),
+    ("--driven-from-bearing", "driven_from_bearing", "between: from bearing 1; far-end: beyond bearing 2 (bare: mm)"),
+    ("--driven-mass", "driven_mass", "mass of the driven element (bare: kg)"),
+    ("--driven-load", "driven_load", "radial load of the driven element besides its weight (bare: N)"),
+    ("--hub-material", "hub_material", "hub material for key crushing: steel (default), steel-s355, cast-iron-200, ..."),
+    # the turning sheet (workbench/turning_job.py)
+    ("--bearing", "bearing", "bearing designation (ISO 15), e.g. 6208 or 22210: journal length, fit, fillet limit"),
+    ("--bearing-mounting", "bearing_mounting", "pressed (default) | adapter-sleeve | insert (set-screw or eccentric-collar unit)"),
+    ("--rotating-ring", "rotating_ring", "ring that turns relative to the load: inner (default) | outer"),
+    ("--bearing-load", "bearing_load", "light | normal (default) | heavy, as a share of the bearing's rating"),
+    ("--journal-class", "journal_class", "journal class instead of the recommended one, e.g. k6"),
+    ("--seat-class", "seat_class", "hub seat class instead of the recommended one, e.g. j6"),
+    ("--key-fit", "key_fit", "keyseat width fit: free | normal (default) | tight (DIN 6885-1)"),
+    ("--turning-sheets", "turning_sheets", "sheets the report prints: candidate (default) | existing | both"),
 )
 
 
@@ -48,9 +77,21 @@ class _Parser(argparse.ArgumentParser):
     """argparse that reports a usage error in one line and exits 2."""
 
     def error(self, message: str) -> None:  # noqa: D102 - argparse hook
-        sys.stderr.write(f"shaftbench: {message} (see shaftbench {self.prog.split()[-1]} --help)\n"
-                         if " " in self.prog else f"shaftbench: {message} (see shaftbench --help)\n")
+        from workbench.cli_log import MESSAGE_LIMIT, cut
+
+        # self.prog is the whole command ("shaftbench log show"), so the hint names the right help.
+        message = cut(" ".join(message.split()), MESSAGE_LIMIT)
+        sys.stderr.write(f"shaftbench: {message} (see {self.prog} --help)\n")
         raise SystemExit(EXIT_BAD_INPUT)
+
+    def parse_args(self, args=None, namespace=None):  # noqa: D102 - argparse hook
+        # Unknown options are reported by the subcommand that was chosen, so the hint names its help.
+        parsed, extras = self.parse_known_args(args, namespace)
+        if extras:
+            words = [self.prog, getattr(parsed, "command", None), getattr(parsed, "log_command", None)]
+            self.prog = " ".join(w for w in words if w)
+            self.error(f"unrecognized arguments: {' '.join(extras)}")
+        return parsed
 
 
 def _add_job_options(parser: argparse.ArgumentParser, only: tuple[str, ...] | None = None) -> None:
@@ -58,6 +99,9 @@ def _add_job_options(parser: argparse.ArgumentParser, only: tuple[str, ...] | No
     for option, key, text in JOB_OPTIONS:
         if only is None or key in only:
             group.add_argument(option, dest=key, metavar="TEXT", help=text)
+    if only is None:
+        group.add_argument("--as-bar", dest="as_bar", action="store_const", const="yes",
+                           help="the candidate runs through square-bore bearings and hubs as it is: no journal, no keyseat")
 
 
 def _add_output_options(parser: argparse.ArgumentParser) -> None:
@@ -74,7 +118,8 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"shaftbench {__version__}")
     parser.add_argument("--demo", action="store_true", help="open the workbench on the demo job")
-    parser.add_argument("--log", metavar="PATH", help="job log file (default: $SHAFTBENCH_LOG or the user data dir)")
+    parser.add_argument("--log", metavar="PATH", type=_log_path_arg,
+                        help="job log file (default: $SHAFTBENCH_LOG or the user data dir)")
     commands = parser.add_subparsers(dest="command", metavar="COMMAND", parser_class=_Parser)
 
     check = commands.add_parser("check", help="check the shaft as found and/or a candidate")
@@ -99,10 +144,22 @@ def build_parser() -> argparse.ArgumentParser:
     stock.add_argument("--system", default="metric", help="metric | inch (default metric)")
     stock.add_argument("--materials", metavar="KEYS", help="comma-separated material keys (default: the job's)")
     stock.add_argument("--all", action="store_true", help="list every size, not only up to the first passes")
+    stock.add_argument("--keyed", action="store_true",
+                       help="keyed stock: each bar's hub seat carries a keyseat, whatever its profile "
+                            "(implied when the shaft as found is keyed)")
     stock.set_defaults(func=run_stock)
 
     _add_log_command(commands)
+    from workbench.cli_fit import add_fit_command
+
+    add_fit_command(commands)
     return parser
+
+
+def _log_path_arg(text: str) -> str:
+    from workbench.cli_log import log_path_arg
+
+    return log_path_arg(text)
 
 
 def _add_save_options(parser: argparse.ArgumentParser) -> None:
@@ -127,6 +184,8 @@ def _inputs_from(args: argparse.Namespace) -> dict[str, str]:
         value = getattr(args, key, None)
         if value is not None:
             inputs[key] = value
+    if getattr(args, "as_bar", None):
+        inputs["as_bar"] = "yes"
     return inputs
 
 
@@ -180,7 +239,7 @@ def run_stock(args: argparse.Namespace) -> int:
     from workbench.job import stock_inputs
 
     keys = [k.strip() for k in args.materials.split(",") if k.strip()] if args.materials else None
-    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.system.lower(), keys)
+    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.system.lower(), keys, keyed=args.keyed)
     if not args.all:
         result = {**result, "rows": _up_to_first_passes(result["rows"])}
     if args.json:
@@ -206,6 +265,10 @@ def _up_to_first_passes(rows: list[dict]) -> list[dict]:
 
 
 def run_workbench(args: argparse.Namespace) -> int:
+    if args.log is None:
+        from workbench.store.paths import default_log_path
+
+        default_log_path()  # an empty $SHAFTBENCH_LOG is refused before the workbench opens
     from workbench.tui.app import run
 
     return run(demo=args.demo, log_path=args.log)
@@ -216,17 +279,27 @@ def main(argv: list[str] | None = None) -> int:
     args = parser.parse_args(argv)
     func = getattr(args, "func", None) or run_workbench
     try:
-        return func(args)
-    except Exception as err:  # user-caused errors are messages; anything else is our bug
-        from workbench.job import JobInputError
+        code = func(args)
+        sys.stdout.flush()  # a closed pipe or full disk shows here, not as "Exception ignored" at exit
+        return code
+    except BrokenPipeError:  # the reader went away (`| head`): nothing to say
+        from workbench.cli_log import stdout_closed
 
-        if isinstance(err, JobInputError):
-            sys.stderr.write(f"shaftbench: {err}\n")
-            return EXIT_BAD_INPUT
+        return stdout_closed()
+    except Exception as err:  # user-caused errors are messages; anything else is our bug
+        from workbench.cli_log import MESSAGE_LIMIT, cut, stdout_closed
+        from workbench.job import JobInputError
         from workbench.store.log import LogError
 
-        if isinstance(err, LogError):
-            sys.stderr.write(f"shaftbench: {err}\n")
+        if isinstance(err, (JobInputError, LogError)):
+            sys.stderr.write(f"shaftbench: {cut(' '.join(str(err).split()), MESSAGE_LIMIT)}\n")
+            return EXIT_BAD_INPUT
+        if isinstance(err, OSError) and err.errno is not None:
+            from workbench.safe_output import describe_os_error
+
+            stdout_closed()
+            where = err.filename if getattr(err, "filename", None) else "the output"
+            sys.stderr.write(f"shaftbench: cannot write {where}: {describe_os_error(err)}\n")
             return EXIT_BAD_INPUT
         raise
 

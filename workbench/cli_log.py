@@ -38,9 +38,50 @@ def add_save_options(parser: argparse.ArgumentParser) -> None:
 
 def _add_log_path(parser: Any) -> None:
     parser.add_argument(
-        "--log", metavar="PATH", default=None,
+        "--log", metavar="PATH", default=None, type=log_path_arg,
         help="job log file (default: $SHAFTBENCH_LOG, else jobs.sqlite3 in the user data folder)",
     )
+
+
+MAX_JOB_ID = 2**63 - 1
+"""The largest job number SQLite can hold (a signed 64-bit integer)."""
+
+
+def cut(text: str, limit: int = 60) -> str:
+    """``text`` for a one-line message: at most ``limit`` characters, the cut marked with '…'."""
+    text = str(text)
+    return text if len(text) <= limit else text[: limit - 1] + "…"
+
+
+def log_path_arg(text: str) -> str:
+    """argparse type of ``--log``: any non-empty path (an empty one would quietly mean the default)."""
+    if not text.strip():
+        raise argparse.ArgumentTypeError("expected a job log file name, got an empty text "
+                                         "(leave --log out to use the default log)")
+    return text
+
+
+def job_id_arg(text: str) -> int:
+    """argparse type of a job ID: a whole number from 1 to 2^63 - 1 (what SQLite can hold)."""
+    value = _whole_number(text)
+    if value is None or not 1 <= value <= MAX_JOB_ID:
+        raise argparse.ArgumentTypeError(f"expected a job number from 1 to {MAX_JOB_ID}, got {cut(text)!r}")
+    return value
+
+
+def limit_arg(text: str) -> int:
+    """argparse type of ``--limit``: a whole number of 1 or more (huge values mean 'no limit')."""
+    value = _whole_number(text)
+    if value is None or value < 1:
+        raise argparse.ArgumentTypeError(f"expected a whole number of 1 or more, got {cut(text)!r}")
+    return min(value, MAX_JOB_ID)
+
+
+def _whole_number(text: str) -> int | None:
+    digits = text.strip().lstrip("+")
+    if not digits.isdigit() or not digits.isascii() or len(digits) > 30:
+        return None if not (digits.isdigit() and digits.isascii()) else 10**30
+    return int(digits)
 
 
 def save_from_args(args: argparse.Namespace, inputs: dict[str, str], result: dict[str, Any]) -> int | None:
@@ -87,12 +128,12 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
     listing.add_argument("--verdict", choices=VERDICTS, help="only jobs with this verdict")
     listing.add_argument("--since", metavar="DATE", help="only jobs saved on or after DATE (YYYY-MM-DD, UTC)")
     listing.add_argument("--until", metavar="DATE", help="only jobs saved on or before DATE (YYYY-MM-DD, UTC)")
-    listing.add_argument("--limit", type=int, default=50, help="at most this many jobs (default 50)")
+    listing.add_argument("--limit", type=limit_arg, default=50, help="at most this many jobs (default 50)")
     listing.add_argument("--deleted", action="store_true", help="list the jobs in the bin instead")
     listing.add_argument("--json", action="store_true", help="print JSON instead of a table")
 
     show = command("show", "show one job and check it against today's program", _cmd_show)
-    show.add_argument("id", type=int, metavar="ID")
+    show.add_argument("id", type=job_id_arg, metavar="ID")
     show.add_argument("--json", action="store_true", help="print the stored job as JSON")
 
     export = command("export", "write every job (bin included) to CSV or JSON", _cmd_export)
@@ -102,15 +143,18 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
     imp = command("import", "add the jobs of a CSV or JSON export (jobs already there are skipped)", _cmd_import)
     imp.add_argument("file", metavar="FILE")
 
-    card = command("card", "print or write the job card of a job", _cmd_card)
-    card.add_argument("id", type=int, metavar="ID")
+    card = command("card", "print or write the job card of a job (html: a printable page, one page per job)",
+                   _cmd_card)
+    card.add_argument("id", type=job_id_arg, metavar="ID", nargs="+")
     card.add_argument("--format", choices=("html", "svg", "text"), default="text")
+    card.add_argument("--paper", choices=("a4", "letter"), default=None,
+                      help="html: fix the paper size (default: the printer's paper; the card fits both)")
     card.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
 
     delete = command("delete", "move a job to the bin (restore brings it back)", _cmd_delete)
-    delete.add_argument("id", type=int, metavar="ID")
+    delete.add_argument("id", type=job_id_arg, metavar="ID")
     restore = command("restore", "bring a job back from the bin", _cmd_restore)
-    restore.add_argument("id", type=int, metavar="ID")
+    restore.add_argument("id", type=job_id_arg, metavar="ID")
     purge = command("purge", "remove every job in the bin for good (asks first)", _cmd_purge)
     purge.add_argument(
         "-y", "--yes", action="store_true",
@@ -129,30 +173,58 @@ def _needs_subcommand(parser: argparse.ArgumentParser) -> Callable[[argparse.Nam
     return func
 
 
+MESSAGE_LIMIT = 300
+"""A one-line message is cut to this many characters (a pasted 100 kB value is not echoed whole)."""
+
+
 def _fail(message: str) -> int:
-    print(f"shaftbench log: {message}", file=sys.stderr)
+    print(f"shaftbench log: {cut(' '.join(str(message).split()), MESSAGE_LIMIT)}", file=sys.stderr)
     return EXIT_USAGE
 
 
 def _guarded(func: Callable[[argparse.Namespace], int]) -> Callable[[argparse.Namespace], int]:
-    """Run a command; a LogError or OS error becomes one line on stderr and exit code 2."""
+    """Run a command; a LogError or OS error becomes one line on stderr and exit code 2.
+
+    What the command printed is flushed here, so that a full disk or a closed pipe on standard
+    output is reported now and not as an "Exception ignored" when Python exits.
+    """
 
     def run(args: argparse.Namespace) -> int:
+        from workbench.safe_output import OutputError, describe_os_error
         from workbench.store import LogError
 
         try:
-            return func(args)
-        except LogError as err:
+            code = func(args)
+            sys.stdout.flush()
+            return code
+        except BrokenPipeError:
+            return stdout_closed()
+        except (LogError, OutputError) as err:
             return _fail(str(err))
         except OSError as err:
-            where = f" {err.filename}" if getattr(err, "filename", None) else ""
-            return _fail(f"cannot write{where}: {err.strerror or err}")
+            where = f" {err.filename}" if getattr(err, "filename", None) else " the output"
+            stdout_closed()
+            return _fail(f"cannot write{where}: {describe_os_error(err)}")
         except KeyboardInterrupt:
             return 130
 
     run.__name__ = func.__name__
     run.__doc__ = func.__doc__
     return run
+
+
+def stdout_closed() -> int:
+    """Point standard output at the null device after it failed (closed pipe, full disk), so that
+    Python's own flush at exit has nothing left to fail on; returns exit code 1."""
+    import os
+
+    try:
+        devnull = os.open(os.devnull, os.O_WRONLY)
+        os.dup2(devnull, sys.stdout.fileno())
+        os.close(devnull)
+    except (OSError, ValueError, AttributeError):
+        pass
+    return 1
 
 
 def _console(file: Any = None) -> Any:
@@ -169,7 +241,9 @@ def _open(args: argparse.Namespace, *, create: bool = False) -> Any:
 
 def _write_out(args: argparse.Namespace, text: str) -> None:
     if args.output:
-        Path(args.output).write_text(text, encoding="utf-8")
+        from workbench.safe_output import write_output
+
+        write_output(args.output, text)
         print(f"wrote {args.output}", file=sys.stderr)
     else:
         sys.stdout.write(text)
@@ -263,19 +337,21 @@ def recheck_text(reopened: Any) -> Any:
 
 
 def _cmd_export(args: argparse.Namespace) -> int:
+    from contextlib import closing
+
     from workbench.store.exchange import write_csv, write_json
 
     writer = write_csv if args.format == "csv" else write_json
-    with _open(args) as log:
+    with _open(args) as log, closing(log.iter_export_rows()) as rows:  # rows end before the log
         if args.output:
-            out_path = Path(args.output)
-            temp = out_path.with_name(out_path.name + ".part")
-            with open(temp, "w", encoding="utf-8", newline="") as out:
-                count = writer(log.iter_export_rows(), out)
-            temp.replace(out_path)
-            print(f"exported {count} job{'s' if count != 1 else ''} to {out_path}", file=sys.stderr)
+            from workbench.safe_output import open_output
+
+            with open_output(args.output) as out:
+                count = writer(rows, out)
+            print(f"exported {count} job{'s' if count != 1 else ''} to {args.output}", file=sys.stderr)
         else:
-            writer(log.iter_export_rows(), sys.stdout)
+            writer(rows, sys.stdout)
+            sys.stdout.flush()
     return EXIT_OK
 
 
@@ -292,11 +368,18 @@ def _cmd_import(args: argparse.Namespace) -> int:
 
 
 def _cmd_card(args: argparse.Namespace) -> int:
-    from workbench.report.jobcard import export_card, job_card_for_record
+    from workbench.report.jobcard import card_page_for_records, export_card, job_card_for_record
 
+    ids = list(dict.fromkeys(args.id))
+    if args.format == "svg" and len(ids) > 1:
+        return _fail("--format svg: one job a file (give one ID, or use --format html for several)")
     with _open(args) as log:
-        record = log.get(args.id)
-    _write_out(args, export_card(job_card_for_record(record), args.format))
+        records = [log.get(job_id) for job_id in ids]
+    if args.format == "html":
+        text = card_page_for_records(records, paper=args.paper)
+    else:
+        text = "\n".join(export_card(job_card_for_record(r), args.format) for r in records)
+    _write_out(args, text)
     return EXIT_OK
 
 

@@ -4,7 +4,9 @@ Everything a person types (``7.5 kW``, ``1-1/4 in``, ``1 1/4"``, ``1450 rpm``) i
 turned into an SI float for the core. Nothing inside :mod:`workbench.core` uses pint.
 
 The registry is built on first use (``registry()``), with pint's on-disk definition cache, so that
-``shaftbench --help`` and the import of the core never pay for it.
+``shaftbench --help`` and the import of the core never pay for it. Common spellings (``mm``,
+``kW``, ``rpm``, ``N*m``, ...) are answered from a table made from pint (:mod:`workbench.unit_table`)
+and pint is imported only for the others; every refusal still holds (see that module).
 """
 
 from __future__ import annotations
@@ -13,6 +15,8 @@ import math
 import re
 from dataclasses import dataclass
 from functools import cache
+
+from workbench.unit_table import si_factor
 
 
 class QuantityError(ValueError):
@@ -54,6 +58,8 @@ TORQUE = Kind("torque", "N*m", "[energy]", "50 N*m or 400 lbf*in")
 STRESS = Kind("stress", "Pa", "[pressure]", "350 MPa or 50 ksi")
 DENSITY = Kind("density", "kg/m^3", "[mass]/[length]**3", "7850 kg/m^3")
 TWIST_RATE = Kind("twist per length", "deg/m", "1/[length]", "0.25 deg/m")
+MASS = Kind("mass", "kg", "[mass]", "8 kg or 18 lb")
+FORCE = Kind("force", "N", "[force]", "1200 N or 270 lbf")
 
 # Spellings the trade uses that pint would read as something else ("Nm" is a nano-metre).
 _REWRITES = (
@@ -69,6 +75,12 @@ _REWRITES = (
     (re.compile(r"\bKW\b"), "kW"),
     (re.compile(r"\bkw\b"), "kW"),
 )
+# One search finds whatever any rewrite would change, so that most entries skip all of them
+# ("rpm" already written so is left out: rewriting it to itself changes nothing).
+_ANY_REWRITE = re.compile("|".join(
+    r"\b(?!rpm\b)(?i:rpm)\b" if rule.pattern == r"\brpm\b" else f"(?{'i' if rule.flags & re.I else ''}:{rule.pattern})"
+    for rule, _ in _REWRITES
+))
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
 _MIXED = re.compile(rf"^\s*(?P<whole>\d+)(?:\s+|-)(?P<num>\d+)\s*/\s*(?P<den>\d+)\s*(?P<unit>.*)$")
 _FRACTION = re.compile(r"^\s*(?P<num>\d+)\s*/\s*(?P<den>\d+)\s*(?P<unit>.*)$")
@@ -84,8 +96,9 @@ def split_number(field: str, text: str) -> tuple[float, str]:
     text = text.strip()
     if not text:
         raise QuantityError(field, "is empty; expected a number with a unit")
-    for rule, replacement in _REWRITES:
-        text = rule.sub(replacement, text)
+    if _ANY_REWRITE.search(text):
+        for rule, replacement in _REWRITES:
+            text = rule.sub(replacement, text)
     match = _MIXED.match(text)
     if match:
         den = int(match["den"])
@@ -127,6 +140,21 @@ def parse_quantity(
     if not math.isfinite(value):
         raise QuantityError(field, f"{text!r} is not a finite number")
     unit_text = unit_text or default_unit
+    factor = si_factor(kind, unit_text)  # a common spelling, from the table made from pint
+    si = value * factor if factor is not None else _pint_si(field, text, value, unit_text, kind)
+    if not math.isfinite(si):
+        raise QuantityError(field, f"{text!r} is not a finite number")
+    if si < 0 or (si == 0 and not allow_zero):
+        raise QuantityError(field, f"must be greater than zero (got {text!r})")
+    if low is not None and si < low:
+        raise QuantityError(field, f"{text!r} is too small; expected at least {format_si(low, kind)}")
+    if high is not None and si > high:
+        raise QuantityError(field, f"{text!r} is too large; expected at most {format_si(high, kind)}")
+    return si
+
+
+def _pint_si(field: str, text: str, value: float, unit_text: str, kind: Kind) -> float:
+    """``value`` in ``unit_text`` read by pint, checked to be a ``kind``, in the kind's SI unit."""
     ureg = registry()
     try:
         units = ureg.parse_units(unit_text)
@@ -139,16 +167,7 @@ def parse_quantity(
         raise QuantityError(
             field, f"{text!r} is not a {kind.name}; expected a {kind.name} such as {kind.examples}"
         )
-    si = _to_si(quantity, kind)
-    if not math.isfinite(si):
-        raise QuantityError(field, f"{text!r} is not a finite number")
-    if si < 0 or (si == 0 and not allow_zero):
-        raise QuantityError(field, f"must be greater than zero (got {text!r})")
-    if low is not None and si < low:
-        raise QuantityError(field, f"{text!r} is too small; expected at least {format_si(low, kind)}")
-    if high is not None and si > high:
-        raise QuantityError(field, f"{text!r} is too large; expected at most {format_si(high, kind)}")
-    return si
+    return _to_si(quantity, kind)
 
 
 def _to_si(quantity, kind: Kind) -> float:

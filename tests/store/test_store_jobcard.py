@@ -4,6 +4,8 @@ from __future__ import annotations
 
 import html
 
+import pytest
+
 from store_helpers import result_for
 
 from workbench.report.jobcard import export_card, job_card, literal, number
@@ -14,7 +16,8 @@ def _card(fmt: str, **meta: str) -> str:
     return export_card(job_card(result, job_id=7, created_at="2025-03-01T08:30:00+00:00", **meta), fmt)
 
 
-def test_text_card_holds_the_record():
+def test_text_card_holds_the_record(zone):
+    zone("UTC")
     result = result_for("demo")
     text = _card("text", asset="CV-07", location="Crusher line 2", by="J. Fitter", note="sheared", fitted="square 40mm")
     for expected in ("CV-07", "Crusher line 2", "J. Fitter", "sheared", "square 40mm", "2025-03-01 08:30 UTC",
@@ -53,3 +56,61 @@ def test_number_formatting():
 def test_card_survives_a_result_missing_sections():
     text = export_card(job_card({"verdict": "pass"}, asset="bare"), "text")
     assert "bare" in text and "PASS" in text and "no shaft in this job" in text and "none listed" in text
+
+
+
+
+@pytest.fixture
+def zone(monkeypatch):
+    """Set the local time zone for one test (TZ + time.tzset), restored afterwards."""
+    import time
+
+    def set_zone(tz: str) -> None:
+        monkeypatch.setenv("TZ", tz)
+        time.tzset()
+
+    yield set_zone
+    monkeypatch.undo()
+    time.tzset()
+
+
+def test_card_times_are_local_with_the_zone_named(zone):
+    from workbench.report.jobcard import local_when
+
+    # 2025-03-01 08:30 UTC is 09:30 in Berlin (CET, UTC+1, no summer time in March before the 30th)
+    zone("Europe/Berlin")
+    assert local_when("2025-03-01T08:30:00+00:00") == "2025-03-01 09:30 CET"
+    # 2025-07-01 08:30 UTC is 04:30 in New York (EDT, UTC-4)
+    zone("America/New_York")
+    assert local_when("2025-07-01T08:30:00+00:00") == "2025-07-01 04:30 EDT"
+    # India has one zone, UTC+05:30 all year; its short name is IST
+    zone("Asia/Kolkata")
+    assert local_when("2025-07-01T08:30:00Z") == "2025-07-01 14:00 IST"
+    zone("UTC")
+    assert local_when("2025-03-01T08:30:00+00:00") == "2025-03-01 08:30 UTC"
+    assert local_when(None) == "-" and local_when("not a time") == "not a time"
+
+
+def test_printable_page_escapes_what_people_type_and_names_the_zone(zone):
+    from workbench.report.card_page import CardJob, card_page
+
+    zone("Europe/Berlin")
+    page = card_page([CardJob(result_for("demo"), asset="<script>x</script>", note="a & b", job_id=3,
+                              created_at="2025-03-01T08:30:00+00:00")], paper="a4")
+    assert "<script>x" not in page and "&lt;script&gt;x&lt;/script&gt;" in page and "a &amp; b" in page
+    assert "2025-03-01 09:30 CET" in page and "size: A4;" in page
+    assert page.count('class="card"') == 1
+
+
+def test_sections_can_be_added_and_replaced(monkeypatch):
+    from workbench.report import card_page as cp
+
+    monkeypatch.setattr(cp, "CARD_SECTIONS", list(cp.CARD_SECTIONS))
+    cp.add_section("steps", lambda job: cp.PageSection("steps", "Steps", "<p>one</p>"), before="verdict")
+    cp.add_section("steps", lambda job: cp.PageSection("steps", "Steps", "<p>two</p>"), before="verdict")
+    keys = [key for key, _ in cp.CARD_SECTIONS]
+    assert keys.count("steps") == 1 and keys.index("steps") == keys.index("verdict") - 1
+    sections = cp.card_sections(cp.CardJob(result_for("demo")))
+    assert [s.body_html for s in sections if s.key == "steps"] == ["<p>two</p>"]
+    cp.add_section("none", lambda job: None)
+    assert "none" not in [s.key for s in cp.card_sections(cp.CardJob(result_for("demo")))]

@@ -9,8 +9,8 @@ from __future__ import annotations
 import io
 import math
 import re
-from collections.abc import Mapping
-from datetime import datetime
+from collections.abc import Callable, Mapping
+from datetime import datetime, timezone
 from typing import Any
 
 from rich import box
@@ -60,6 +60,28 @@ def when(iso: str | None) -> str:
         return str(iso)
 
 
+def local_when(iso: str | None) -> str:
+    """A stored UTC ISO time in this computer's local time with the zone named:
+    ``2025-03-01 09:30 CET`` (a zone without a short name shows as ``UTC+05:30``), or '-'."""
+    if not iso:
+        return "-"
+    try:
+        moment = datetime.fromisoformat(str(iso).replace("Z", "+00:00"))
+    except ValueError:
+        return str(iso)
+    if moment.tzinfo is None:
+        moment = moment.replace(tzinfo=timezone.utc)
+    try:
+        local = moment.astimezone()
+    except (OverflowError, OSError, ValueError):  # outside what the platform's clock functions hold
+        local = moment.astimezone(timezone.utc)
+    zone = local.tzname() or ""
+    if not zone.isalpha():
+        offset = local.strftime("%z")
+        zone = f"UTC{offset[:3]}:{offset[3:]}" if offset and offset != "+0000" else "UTC"
+    return f"{local:%Y-%m-%d %H:%M} {zone}"
+
+
 def verdict_text(verdict: Any) -> Text:
     """The verdict word in capitals, coloured (the word carries the meaning, not the colour)."""
     word = verdict if isinstance(verdict, str) and verdict else "no verdict"
@@ -79,10 +101,10 @@ def _section(title: str, body: RenderableType) -> Panel:
     return Panel(body, title=Text(title, style="bold"), title_align="left", box=box.SQUARE, padding=(0, 1))
 
 
-def _drive(result: Mapping[str, Any]) -> Table:
+def drive_rows(result: Mapping[str, Any]) -> list[tuple[str, str]]:
+    """The drive's figures as (label, shown value) rows (the card's Drive section)."""
     drive = result.get("drive") or {}
-    settings = result.get("settings") or {}
-    return _pairs([
+    return [
         ("motor power", number(drive.get("power_W"), 1000, "kW")),
         ("motor speed", number(drive.get("motor_speed_rpm"), 1, "rpm")),
         ("ratio / efficiency", f"{number(drive.get('ratio'))} / {number(drive.get('efficiency'))}"),
@@ -91,49 +113,95 @@ def _drive(result: Mapping[str, Any]) -> Table:
         ("running torque", number(drive.get("running_torque_Nm"), 1, "N·m")),
         ("design torque", number(drive.get("design_torque_Nm"), 1, "N·m")),
         ("peak torque", number(drive.get("peak_torque_Nm"), 1, "N·m")),
-        ("required safety factor", number(settings.get("required_sf"))),
-        ("fatigue criterion", settings.get("fatigue_criterion") or "-"),
-    ])
+    ]
 
 
-def _mount(result: Mapping[str, Any]) -> Table:
+def mount_rows(result: Mapping[str, Any]) -> list[tuple[str, str]]:
+    """The mounted element's figures and the verdict's settings as (label, shown value) rows."""
     mount = result.get("mount") or {}
-    return _pairs([
-        ("element", mount.get("element") or "-"),
+    settings = result.get("settings") or {}
+    return [
+        ("element", str(mount.get("element") or "-")),
         ("load factor", number(mount.get("load_factor"))),
         ("pitch diameter", number(mount.get("pitch_diameter_m"), 1e-3, "mm")),
         ("overhang", number(mount.get("overhang_m"), 1e-3, "mm")),
         ("side load", number(mount.get("side_load_N"), 1, "N")),
         ("bending moment", number(mount.get("bending_moment_Nm"), 1, "N·m")),
-    ])
+        ("required safety factor", number(settings.get("required_sf"))),
+        ("fatigue criterion", str(settings.get("fatigue_criterion") or "-")),
+    ]
+
+
+def shafts_of(result: Mapping[str, Any]) -> list[Mapping[str, Any]]:
+    """The result's shafts that are mappings (a damaged result may hold anything)."""
+    return [s for s in (result.get("shafts") or []) if isinstance(s, Mapping)]
+
+
+def _word(verdict: Any) -> str:
+    return verdict.upper() if isinstance(verdict, str) and verdict else "NO VERDICT"
+
+
+SHAFT_ROWS: list[tuple[str, Callable[[Mapping[str, Any]], str]]] = [
+    ("spec", lambda s: str(s.get("spec", ""))),
+    ("material", lambda s: str(s.get("material_name") or s.get("material") or "")),
+    ("max shear (torsion)", lambda s: number(s.get("max_shear_stress_Pa"), 1e6, "MPa")),
+    ("bending stress", lambda s: number(s.get("bending_stress_Pa"), 1e6, "MPa")),
+    ("von Mises stress", lambda s: number(s.get("von_mises_stress_Pa"), 1e6, "MPa")),
+    ("endurance limit", lambda s: number(s.get("endurance_limit_Pa"), 1e6, "MPa")),
+    ("twist", lambda s: f"{number(s.get('twist_deg_per_m'), 1, '°/m')} "
+                        f"(limit {number(s.get('twist_limit_deg_per_m'), 1, '°/m')})"),
+    ("static safety factor", lambda s: number(s.get("static_safety_factor"))),
+    ("shear-yield safety factor", lambda s: number(s.get("shear_yield_safety_factor"))),
+    ("fatigue safety factor", lambda s: number(s.get("fatigue_safety_factor"))),
+    ("Kf / Kfs", lambda s: f"{number(s.get('Kf'))} / {number(s.get('Kfs'))} ({s.get('feature', '')})"),
+    ("mass", lambda s: number(s.get("mass_kg_per_m"), 1, "kg/m")),
+    ("verdict", lambda s: _word(s.get("verdict"))),
+]
+"""The rows of the card's Shafts table: (label, shaft -> shown value)."""
+
+OUTCOMES = {"still-running": "still running", "failed": "failed again", "removed": "removed"}
+"""Outcome words a job can record (``log edit --outcome``) and how the card says them."""
+
+
+def outcome_rows(fitted: str, extra: Mapping[str, Any]) -> list[tuple[str, str]]:
+    """What was fitted and how it ended, as (label, shown value) rows."""
+    rows = [("fitted", fitted or "not recorded")]
+    if extra.get("fitted_on"):
+        rows.append(("fitted on", str(extra["fitted_on"])))
+    outcome = extra.get("outcome")
+    if outcome:
+        shown = OUTCOMES.get(str(outcome), str(outcome))
+        if extra.get("outcome_date"):
+            shown += f" on {extra['outcome_date']}"
+        rows.append(("outcome", shown))
+    else:
+        rows.append(("outcome", "not recorded"))
+    if extra.get("updated_at") and (outcome or extra.get("fitted_on")):
+        rows.append(("recorded", local_when(str(extra["updated_at"]))))
+    return rows
+
+
+def _drive(result: Mapping[str, Any]) -> Table:
+    return _pairs(drive_rows(result))
+
+
+def _mount(result: Mapping[str, Any]) -> Table:
+    return _pairs(mount_rows(result))
 
 
 def _shafts(result: Mapping[str, Any]) -> RenderableType:
-    shafts = [s for s in (result.get("shafts") or []) if isinstance(s, Mapping)]
+    shafts = shafts_of(result)
     if not shafts:
         return Text("no shaft in this job", style="dim")
     table = Table(box=box.SIMPLE_HEAD, pad_edge=False, expand=True)
     table.add_column("", style="dim", no_wrap=True)
     for shaft in shafts:
         table.add_column(literal(shaft.get("role", "shaft")), ratio=1)
-    rows: list[tuple[str, Any]] = [
-        ("spec", lambda s: literal(s.get("spec", ""))),
-        ("material", lambda s: literal(s.get("material_name") or s.get("material") or "")),
-        ("max shear (torsion)", lambda s: number(s.get("max_shear_stress_Pa"), 1e6, "MPa")),
-        ("bending stress", lambda s: number(s.get("bending_stress_Pa"), 1e6, "MPa")),
-        ("von Mises stress", lambda s: number(s.get("von_mises_stress_Pa"), 1e6, "MPa")),
-        ("endurance limit", lambda s: number(s.get("endurance_limit_Pa"), 1e6, "MPa")),
-        ("twist", lambda s: f"{number(s.get('twist_deg_per_m'), 1, '°/m')} "
-                            f"(limit {number(s.get('twist_limit_deg_per_m'), 1, '°/m')})"),
-        ("static safety factor", lambda s: number(s.get("static_safety_factor"))),
-        ("shear-yield safety factor", lambda s: number(s.get("shear_yield_safety_factor"))),
-        ("fatigue safety factor", lambda s: number(s.get("fatigue_safety_factor"))),
-        ("Kf / Kfs", lambda s: f"{number(s.get('Kf'))} / {number(s.get('Kfs'))} ({s.get('feature', '')})"),
-        ("mass", lambda s: number(s.get("mass_kg_per_m"), 1, "kg/m")),
-        ("verdict", lambda s: verdict_text(s.get("verdict"))),
-    ]
-    for label, cell in rows:
-        table.add_row(label, *(cell(s) for s in shafts))
+    for label, cell in SHAFT_ROWS:
+        if label == "verdict":
+            table.add_row(label, *(verdict_text(s.get("verdict")) for s in shafts))
+        else:
+            table.add_row(label, *(literal(cell(s)) for s in shafts))
     whys = [
         Text.assemble((f"{s.get('role', 'shaft')}: ", "dim"), literal(s.get("why", "")))
         for s in shafts
@@ -173,8 +241,9 @@ def _steps(result: Mapping[str, Any]) -> RenderableType | None:
     return Group(*parts)
 
 
-def _deciding_shaft(result: Mapping[str, Any]) -> Mapping[str, Any]:
-    shafts = [s for s in (result.get("shafts") or []) if isinstance(s, Mapping)]
+def deciding_shaft(result: Mapping[str, Any]) -> Mapping[str, Any]:
+    """The shaft the overall verdict is about: the candidate if there is one, else the existing."""
+    shafts = shafts_of(result)
     for role in ("candidate", "existing"):
         for shaft in shafts:
             if shaft.get("role") == role:
@@ -182,8 +251,8 @@ def _deciding_shaft(result: Mapping[str, Any]) -> Mapping[str, Any]:
     return {}
 
 
-def _verdict(result: Mapping[str, Any], fitted: str) -> RenderableType:
-    shaft = _deciding_shaft(result)
+def _verdict(result: Mapping[str, Any], fitted: str, extra: Mapping[str, Any]) -> RenderableType:
+    shaft = deciding_shaft(result)
     line = Text.assemble(("Overall: ", "bold"), verdict_text(result.get("verdict")))
     if shaft:
         line.append_text(Text.assemble(("  — ", "dim"), literal(shaft.get("role", "")), (" ", "dim"),
@@ -201,7 +270,8 @@ def _verdict(result: Mapping[str, Any], fitted: str) -> RenderableType:
             f"stiffness {number(comparison.get('stiffness_ratio'))}, "
             f"mass {number(comparison.get('mass_ratio'))}",
         ))
-    parts.append(Text.assemble(("fitted: ", "dim"), literal(fitted) if fitted else Text("not recorded", style="dim")))
+    for label, value in outcome_rows(fitted, extra):
+        parts.append(Text.assemble((f"{label}: ", "dim"), literal(value)))
     return Group(*parts)
 
 
@@ -237,15 +307,17 @@ def job_card(
     job_id: int | None = None,
     created_at: str | None = None,
     program_version: str = "",
+    extra: Mapping[str, Any] | None = None,
 ) -> RenderableType:
-    """The job card as one Rich renderable (a saved job or one not saved yet)."""
+    """The job card as one Rich renderable (a saved job or one not saved yet); ``extra`` holds the
+    recorded outcome (``outcome``, ``outcome_date``, ``fitted_on``, ``updated_at``) if any."""
     heading = Text(CARD_TITLE, style="bold")
     if job_id is not None:
         heading.append(f"  job {job_id}", style="bold")
     head = _pairs([
         ("asset", literal(asset or "-")),
         ("location", literal(location or "-")),
-        ("date", when(created_at)),
+        ("date", local_when(created_at)),
         ("checked by", literal(by or "-")),
         ("program", literal(program_version or (result.get("program") or {}).get("version", "-"))),
     ])
@@ -258,7 +330,7 @@ def job_card(
             _section("Mount", _mount(result)),
             _section("Shafts", _shafts(result)),
             *([_section("Steps", steps)] if steps is not None else []),
-            _section("Verdict", _verdict(result, fitted)),
+            _section("Verdict", _verdict(result, fitted, extra or {})),
             _section("Notes", notes),
             _section("Safety cautions", _cautions(result)),
             _section("Signatures", _signatures()),
@@ -271,21 +343,28 @@ def job_card(
 
 def job_card_for_record(record: Any) -> RenderableType:
     """The job card of a stored job (a ``workbench.store.JobRecord``)."""
+    from workbench.report.card_page import CardJob
+
+    job = CardJob.from_record(record)
     return job_card(
-        record.result,
-        asset=record.asset,
-        location=record.location,
-        by=record.by,
-        note=record.note,
-        fitted=record.fitted,
-        job_id=record.id,
-        created_at=record.created_at,
-        program_version=record.program_version,
+        job.result, asset=job.asset, location=job.location, by=job.by, note=job.note, fitted=job.fitted,
+        job_id=job.job_id, created_at=job.created_at, program_version=job.program_version, extra=job.extra,
     )
 
 
+def card_page_for_records(records: list[Any], *, paper: str | None = None) -> str:
+    """The printable HTML page of stored jobs' cards, one page per job (see ``card_page``)."""
+    from workbench.report.card_page import CardJob, card_page
+
+    return card_page([CardJob.from_record(r) for r in records], paper=paper)
+
+
 def export_card(card: RenderableType, fmt: str, *, width: int = 96) -> str:
-    """The card exported as ``html``, ``svg`` or ``text`` through a recording Console."""
+    """The card exported as ``html``, ``svg`` or ``text`` through a recording Console.
+
+    The ``html`` here is the terminal look in a ``<pre>``; the printable page the CLI and the
+    workbench write is ``card_page_for_records`` (workbench/report/card_page.py).
+    """
     if fmt not in FORMATS:
         raise ValueError(f"card format must be one of {', '.join(FORMATS)}, not {fmt!r}")
     console = Console(

@@ -12,9 +12,17 @@ FILE_NAME = "jobs.sqlite3"
 
 
 def default_log_path() -> Path:
-    """The job log file to use when none is given: ``$SHAFTBENCH_LOG``, else the user data folder."""
-    env = os.environ.get(ENV_VAR, "").strip()
-    if env:
+    """The job log file to use when none is given: ``$SHAFTBENCH_LOG``, else the user data folder.
+
+    ``SHAFTBENCH_LOG`` set but empty is refused (a LogError), like ``--log ""``: an empty name
+    must not quietly mean the default log.
+    """
+    env = os.environ.get(ENV_VAR)
+    if env is not None:
+        if not env.strip():
+            from workbench.store import LogError
+
+            raise LogError(f"{ENV_VAR} is set but empty: name a job log file, or unset it to use the default log")
         return Path(env).expanduser()
     from platformdirs import user_data_dir
 
