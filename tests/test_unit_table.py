@@ -211,3 +211,33 @@ def test_an_uncommon_spelling_still_goes_to_pint():
         assert abs(parse_quantity("speed", "1460 revolution/minute", SPEED, "rpm") - 1460) < 1e-9
     """)
     assert "pint" in modules
+
+
+TOKENS = ["1", "7.5", "1460", "1/4", "1-1/4", "1 1/4", " ", "", "mm", "MM", "in", "IN", "inch", '"', "″", "''",
+          "Nm", "kNm", "N*m", "N·m", "lb-in", "lbf in", "in-lb", "ft.lb", "pound foot", "rpm", "RPM", "Rpm",
+          "kW", "KW", "kw", "HP", "hp", "x", "/", "-", "MPa", "deg/m", "banana"]
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.lists(st.sampled_from(TOKENS), min_size=1, max_size=5))
+def test_skipping_the_rewrites_changes_no_reading(tokens):
+    """split_number skips its spelling rewrites when one search finds nothing any would change:
+    the reading (number and unit, or the refusal) is the one with every rewrite applied."""
+    import re
+
+    text = "".join(tokens)
+
+    def read():
+        try:
+            return units.split_number("x", text)
+        except QuantityError as err:
+            return str(err)
+
+    quick = read()
+    saved = units._ANY_REWRITE
+    units._ANY_REWRITE = re.compile("")  # matches every text: every rewrite applied
+    try:
+        full = read()
+    finally:
+        units._ANY_REWRITE = saved
+    assert quick == full

@@ -58,6 +58,8 @@ TORQUE = Kind("torque", "N*m", "[energy]", "50 N*m or 400 lbf*in")
 STRESS = Kind("stress", "Pa", "[pressure]", "350 MPa or 50 ksi")
 DENSITY = Kind("density", "kg/m^3", "[mass]/[length]**3", "7850 kg/m^3")
 TWIST_RATE = Kind("twist per length", "deg/m", "1/[length]", "0.25 deg/m")
+MASS = Kind("mass", "kg", "[mass]", "8 kg or 18 lb")
+FORCE = Kind("force", "N", "[force]", "1200 N or 270 lbf")
 
 # Spellings the trade uses that pint would read as something else ("Nm" is a nano-metre).
 _REWRITES = (
@@ -73,6 +75,12 @@ _REWRITES = (
     (re.compile(r"\bKW\b"), "kW"),
     (re.compile(r"\bkw\b"), "kW"),
 )
+# One search finds whatever any rewrite would change, so that most entries skip all of them
+# ("rpm" already written so is left out: rewriting it to itself changes nothing).
+_ANY_REWRITE = re.compile("|".join(
+    r"\b(?!rpm\b)(?i:rpm)\b" if rule.pattern == r"\brpm\b" else f"(?{'i' if rule.flags & re.I else ''}:{rule.pattern})"
+    for rule, _ in _REWRITES
+))
 _NUMBER = r"[+-]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][+-]?\d+)?"
 _MIXED = re.compile(rf"^\s*(?P<whole>\d+)(?:\s+|-)(?P<num>\d+)\s*/\s*(?P<den>\d+)\s*(?P<unit>.*)$")
 _FRACTION = re.compile(r"^\s*(?P<num>\d+)\s*/\s*(?P<den>\d+)\s*(?P<unit>.*)$")
@@ -88,8 +96,9 @@ def split_number(field: str, text: str) -> tuple[float, str]:
     text = text.strip()
     if not text:
         raise QuantityError(field, "is empty; expected a number with a unit")
-    for rule, replacement in _REWRITES:
-        text = rule.sub(replacement, text)
+    if _ANY_REWRITE.search(text):
+        for rule, replacement in _REWRITES:
+            text = rule.sub(replacement, text)
     match = _MIXED.match(text)
     if match:
         den = int(match["den"])

@@ -22,7 +22,7 @@ def test_wheel_carries_every_data_table(tmp_path):
     )
     wheel = next(tmp_path.glob("shaftbench-*.whl"))
     names = set(zipfile.ZipFile(wheel).namelist())
-    for table in sorted((REPO / "data").glob("*.csv")):
+    for table in sorted([*(REPO / "data").glob("*.csv"), *(REPO / "data").glob("*.json")]):
         assert f"workbench/data/{table.name}" in names, table.name
     assert "workbench/core/tables.py" in names
 

@@ -53,22 +53,22 @@ class ShaftbenchApp(App):
 
     def get_default_screen(self) -> JobScreen:
         """The job sheet is the bottom screen: one screen to compose before the first frame."""
-        self._job_screen = JobScreen()
-        return self._job_screen
-
-    def on_mount(self) -> None:
-        self.call_after_refresh(self._after_first_paint)
-
-    def _after_first_paint(self) -> None:
         inputs = self.initial_inputs
         if self.demo and inputs is None:
             from workbench.demo import DEMO_META, demo_inputs
 
             inputs = demo_inputs()
             self.meta = dict(DEMO_META)
-        if inputs:
-            self.job_screen.sheet.load_inputs(inputs)
+        # the first job is loaded and evaluated as the sheet mounts: the first frame shows its verdict
+        self._job_screen = JobScreen(first_inputs=inputs)
+        return self._job_screen
+
+    def on_mount(self) -> None:
+        self.call_after_refresh(self._after_first_paint)
+
+    def _after_first_paint(self) -> None:
         self._load_materials()
+        self.job_screen.warm_up()
 
     def _load_materials(self) -> None:
         def work() -> list[str]:

@@ -92,6 +92,17 @@ def evaluate(inputs: dict[str, str]) -> Evaluation:
     )
 
 
+def warm_up() -> None:
+    """Import what the first section view needs (numpy, scipy, the solver, the stress map), so
+    that pressing F2 does not wait for it; run in a worker thread after the first verdict."""
+    import scipy.sparse.linalg  # noqa: F401  (the solve)
+    import scipy.spatial  # noqa: F401  (the mesh)
+
+    import workbench.core.profiles  # noqa: F401
+    import workbench.core.stress_map  # noqa: F401
+    import workbench.core.torsion_solver  # noqa: F401
+
+
 def substitute(inputs: dict[str, str]) -> tuple[dict[str, Any] | None, str]:
     """Equal-strength / equal-stiffness sizes for the job (result, message-if-not)."""
     job = _job_module()

@@ -14,6 +14,7 @@ from textual.worker import get_current_worker
 from .. import engine
 from ..messages import EvaluationReady, SheetChanged
 from ..widgets.job_sheet import JobSheet
+from ..widgets.steady import update_in_place
 from ..widgets.verdict_panel import VerdictPanel
 
 NARROW_BELOW = 100
@@ -22,8 +23,9 @@ NARROW_BELOW = 100
 class JobScreen(Screen):
     """Sheet + verdict; recomputes in a worker a moment after each edit."""
 
-    def __init__(self) -> None:
+    def __init__(self, first_inputs: dict[str, str] | None = None) -> None:
         super().__init__(id="job")
+        self.first_inputs = first_inputs
         self.generation = 0
         self.evaluation: engine.Evaluation | None = None
         self.last_inputs: dict[str, str] = {}
@@ -46,6 +48,8 @@ class JobScreen(Screen):
         return self.query_one(VerdictPanel)
 
     def on_mount(self) -> None:
+        if self.first_inputs:
+            self.show_job_now(self.first_inputs)
         self.update_title()
         self.query_one("#power").focus()
 
@@ -64,8 +68,9 @@ class JobScreen(Screen):
                 state = "… needs " + ", ".join(sorted(self.needed))
             elif self.evaluation.result is not None:
                 state = "✓ up to date"
-        self.query_one("#title-bar", Static).update(
-            f" Shaftbench · {state} · {system} · Enter next field · PgDn next part"
+        update_in_place(
+            self.query_one("#title-bar", Static),
+            f" Shaftbench · {state} · {system} · Enter next field · PgDn next part",
         )
 
     # -- evaluation ----------------------------------------------------------------------------
@@ -77,6 +82,19 @@ class JobScreen(Screen):
         self.generation += 1
         self.last_inputs = dict(inputs)
         self._evaluate(dict(inputs), self.generation)
+
+    def show_job_now(self, inputs: dict[str, str]) -> None:
+        """Put ``inputs`` on the sheet and show their evaluation at once (no debounce, no worker):
+        used before the first paint, so that the first frame already holds the verdict."""
+        self.sheet.load_inputs(inputs)
+        self.sheet.cancel_pending()
+        self.generation += 1
+        self.last_inputs = self.sheet.inputs()
+        self.apply_evaluation(engine.evaluate(self.last_inputs) if self.last_inputs else engine.Evaluation())
+
+    def warm_up(self) -> None:
+        """Load what the first section view needs (numpy, scipy, the solver) in the background."""
+        self.run_worker(engine.warm_up, thread=True, group="warm-up", exit_on_error=False)
 
     @work(thread=True, exclusive=True, group="evaluate")
     def _evaluate(self, inputs: dict[str, str], generation: int) -> None:

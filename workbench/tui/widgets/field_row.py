@@ -18,6 +18,7 @@ from textual.widgets import Input, Label, Static
 
 from ..fields import FieldSpec
 from .choice import Choice
+from .steady import SteadyInput
 
 
 class FieldGrid(Container):
@@ -47,7 +48,7 @@ class FieldRow:
         if spec.choices:
             self.control = Choice(spec.choices, id=key, classes="field-control")
         else:
-            self.control = Input(
+            self.control = SteadyInput(
                 placeholder=spec.placeholder,
                 id=key,
                 classes="field-control",

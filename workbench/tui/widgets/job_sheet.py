@@ -26,6 +26,7 @@ from ..fields import (
 from ..messages import SheetChanged
 from .choice import Choice
 from .field_row import FieldGrid, FieldRow
+from .steady import update_in_place
 
 DEBOUNCE_S = 0.12
 SHAFT_PREFIXES = ("shaft", "candidate")
@@ -176,7 +177,7 @@ class JobSheet(VerticalScroll, can_focus=False):
         tip = profile_words_tip(self.value(f"{prefix}_profile"))
         if tip and not is_full_spec(size) and not split_size_words(size)[1]:
             text += f"\n{tip}"  # how to enter flats, radii, chamfers: until they are used
-        self.query_one(f"#spec-{prefix}", Static).update(text)
+        update_in_place(self.query_one(f"#spec-{prefix}", Static), text)
 
     def on_choice_changed(self, event: Choice.Changed) -> None:
         key = event.choice.id or ""
@@ -202,6 +203,12 @@ class JobSheet(VerticalScroll, can_focus=False):
         if self._timer is not None:
             self._timer.stop()
         self._timer = self.set_timer(DEBOUNCE_S, self._emit)
+
+    def cancel_pending(self) -> None:
+        """Drop a change not yet posted (its inputs were just evaluated another way)."""
+        if self._timer is not None:
+            self._timer.stop()
+            self._timer = None
 
     def _emit(self) -> None:
         self._timer = None

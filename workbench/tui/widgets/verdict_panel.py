@@ -11,6 +11,8 @@ from textual.widgets import Static
 
 from workbench.report import display
 
+from .steady import update_in_place
+
 _ROLE_TITLE = {"existing": "as found", "candidate": "candidate"}
 
 
@@ -99,18 +101,18 @@ class VerdictPanel(VerticalScroll, can_focus=False):
     def refresh_view(self) -> None:
         """Rebuild the panel's text from the held result."""
         banner = self.query_one("#verdict-banner", Static)
-        banner.update(self._banner_text())
+        update_in_place(banner, self._banner_text())
         word = (self.result or {}).get("verdict") or "none"
         for w in ("pass", "marginal", "fail", "none"):
             banner.set_class(w == word, f"-{w}")
         table_widget = self.query_one("#verdict-table", Static)
         why_widget = self.query_one("#verdict-why", Static)
         status = self.query_one("#verdict-status", Static)
-        status.update(Text(self.stale_note) if self.stale_note else "")
+        update_in_place(status, Text(self.stale_note) if self.stale_note else "")
         status.display = bool(self.stale_note)
         if self.result is None:
-            table_widget.update("")
-            why_widget.update("")
+            update_in_place(table_widget, "")
+            update_in_place(why_widget, "")
             return
         from rich.table import Table  # first needed with the first result, after the first paint
 
@@ -134,7 +136,7 @@ class VerdictPanel(VerticalScroll, can_focus=False):
             f"side load {display.force(self.result.get('mount', {}).get('side_load_N'), self.system)}",
             style="dim",
         )
-        table_widget.update(Group(head, table))
+        update_in_place(table_widget, Group(head, table))
         lines = []
         for shaft in shafts:
             title = _ROLE_TITLE.get(shaft.get("role"), "shaft")
@@ -142,7 +144,7 @@ class VerdictPanel(VerticalScroll, can_focus=False):
         cautions = self.result.get("cautions") or []
         if cautions:
             lines.append(Text(f"⚠ {len(cautions)} safety cautions — F1 to read them", style="italic"))
-        why_widget.update(Group(*lines))
+        update_in_place(why_widget, Group(*lines))
 
     def on_resize(self) -> None:
         if self.result is not None:
