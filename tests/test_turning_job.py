@@ -63,7 +63,8 @@ def test_options_change_the_sheet(capsys):
 
 def test_journal_class_override(capsys):
     data = _check(capsys, "--journal-class", "m6")
-    assert data["shafts"][0]["turning"][0]["class"] == "m6"
+    journals = [r for r in data["shafts"][0]["turning"] if r["step"] == "journal"]
+    assert journals and all(r["class"] == "m6" for r in journals)
 
 
 @pytest.mark.parametrize("argv,field", [
@@ -87,3 +88,30 @@ def test_report_prints_the_candidates_sheet_by_default(capsys):
     out = capsys.readouterr().out
     assert "Turning sheet — candidate" in out and "Turning sheet — existing" in out
     assert "40.002-40.018" in out
+
+
+def test_one_row_per_step_with_the_steps_kind_words(capsys):
+    data = _check(capsys, "--bearing", "6208", "--turning-sheets", "both")
+    for shaft in data["shafts"]:
+        steps = shaft.get("steps")
+        if not steps:
+            continue
+        assert [r["step"] for r in shaft["turning"]] == [s["kind"] for s in steps]
+        assert [r["diameter_m"] for r in shaft["turning"]] == pytest.approx([s["diameter_m"] for s in steps])
+        for row in shaft["turning"]:
+            if row["step"] == "journal":
+                assert row["length_m"] == pytest.approx(0.018)   # 6208 width (ISO 15, from memory)
+            if row["step"] == "shoulder" and row["fillet_max_m"] is not None:
+                assert row["fillet_min_m"] <= row["fillet_max_m"] + 1e-12
+                assert row["fillet_max_m"] == pytest.approx(0.0011)  # 6208 r_s min
+
+
+def test_keyed_seat_on_a_square_candidate_gets_the_seats_key(capsys):
+    data = _check(capsys, "--candidate", "square 45mm keyed")
+    candidate = data["shafts"][1]
+    seat = next(r for r in candidate["turning"] if r["step"] == "seat")
+    k = candidate["keyseat"]
+    assert k is not None
+    # DIN 6885-1: a 40 mm seat (38-44 mm) takes a 12 x 8 key, t1 = 5.0 mm (shop data, V)
+    assert seat["diameter_m"] == pytest.approx(0.040)
+    assert k["key_width_m"] == pytest.approx(0.012) and k["depth_m"] == pytest.approx(0.035)

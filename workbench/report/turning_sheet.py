@@ -7,7 +7,7 @@ from __future__ import annotations
 
 from typing import Any, Mapping, Sequence
 
-HEADINGS = ("step", "size", "limits mm", "limits in", "length", "fillet r", "Ra um")
+HEADINGS = ("step", "size", "limits mm / in", "length", "fillet r", "Ra um")
 M_PER_IN = 0.0254
 
 
@@ -41,15 +41,16 @@ def _fillet(row: Mapping[str, Any]) -> str:
 
 
 def sheet_rows(shaft: Mapping[str, Any], system: str = "metric") -> list[tuple[str, ...]]:
-    """One tuple of strings per turned step: step, size and class, limits in mm (min-max), limits in
-    inches to 0.0001 in, length, fillet window, Ra. ``system`` inch gives the size in inches."""
+    """One tuple of strings per turned step: step, size and class, limits (min-max) in mm and in
+    inches to 0.0001 in on two lines, length, fillet window, Ra. ``system`` inch puts inches first."""
     out = []
     for row in shaft.get("turning") or []:
         size = f"{_in(row['diameter_m'])} in" if system == "inch" else f"{row['diameter_m'] * 1000:g} mm"
         length = "-" if row.get("length_m") is None else (
-            f"{_in(row['length_m'])} in" if system == "inch" else f"{row['length_m'] * 1000:g} mm")
-        out.append((str(row.get("label") or row["step"]), f"{size} {row['class']}",
-                    f"{_mm(row['min_m'])}-{_mm(row['max_m'])}", f"{_in(row['min_m'])}-{_in(row['max_m'])}",
+            f"{_in(row['length_m'])} in" if system == "inch" else f"{row['length_m'] * 1000:.4g} mm")
+        mm, inch = f"{_mm(row['min_m'])}-{_mm(row['max_m'])}", f"{_in(row['min_m'])}-{_in(row['max_m'])}"
+        limits = f"{inch} in\n{mm}" if system == "inch" else f"{mm}\n{inch} in"
+        out.append((str(row.get("label") or row["step"]), f"{size} {row['class']}", limits,
                     length, _fillet(row), f"{row['finish_Ra_um']:g}"))
     return out
 
@@ -127,7 +128,7 @@ def _card_section(role: str):
         if not shafts:
             return None
         shaft = shafts[0]
-        table = grid(HEADINGS, sheet_rows(shaft, "metric"))
+        table = grid(HEADINGS, ([c.replace("\n", " / ") for c in row] for row in sheet_rows(shaft, "metric")))
         lines = "".join(f"<p>{esc(line)}</p>" for line in keyseat_lines(shaft) + fit_lines(shaft))
         caution = ("<p>Turn to the limits above; measure at 20 degC or correct for temperature. "
                    "A bench check, not a design approval: lock out the drive before fitting.</p>")
