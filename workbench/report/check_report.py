@@ -136,6 +136,11 @@ def render_check(result: dict, system: str = "metric") -> Group:
             ))
         for note in shaft.get("notes", []):
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
+    from workbench.report.turning_sheet import render_turning
+
+    sheets = render_turning(result, system)
+    if sheets is not None:
+        parts.append(sheets)
     parts.append(methods_panel(result))
     parts.append(cautions_panel(result["cautions"]))
     return Group(*parts)
