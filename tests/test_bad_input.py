@@ -23,12 +23,12 @@ from workbench.job import INPUT_KEYS, JobInputError, evaluate_inputs, stock_inpu
 POWER_JOB = {
     "power": "7.5 kW", "speed": "1460 rpm", "ratio": "3.2", "efficiency": "96%", "service_factor": "1.5",
     "peak_factor": "2.2", "mount": "vbelt", "pitch_diameter": "200 mm", "overhang": "60 mm",
-    "shaft": "round 40mm keyed", "candidate": "square 40mm", "material": "1045-cd",
+    "shaft": "round 40mm keyed", "candidate": "square 45mm", "material": "1045-cd",
     "candidate_material": "4140-qt650", "required_sf": "1.5", "criterion": "goodman",
     "reliability": "0.9", "twist_limit": "0.5 deg/m",
 }
 TORQUE_JOB = {
-    "torque": "200 Nm", "shaft": "tube 60mm/50mm keyed", "candidate": "flat 50mm x 25mm",
+    "torque": "200 Nm", "shaft": "tube 60mm/50mm keyed", "candidate": "flat 100mm x 65mm",
     "mount": "gear", "pitch_diameter": "120", "overhang": "40", "material": "4140-qt650",
 }
 # A size-ranged grade (c45-qt) is left out of the bases: a changed shaft size may then legitimately
@@ -36,6 +36,9 @@ TORQUE_JOB = {
 
 # A blank field is "not given": the refusal may then name the field that becomes required.
 REQUIRED_WHEN_BLANK = {"torque": {"power"}}
+# The candidate is turned to the journals and seat of the shaft as found: a shaft as found that
+# the candidate bar cannot be turned to is refused naming the candidate (the bar that falls short).
+CROSS_FIELD = {"shaft": {"candidate"}}
 
 UNITS = [
     "", "kW", "W", "hp", "HP", "rpm", "Hz", "mm", "m", "in", "inch", '"', "''", "ft", "Nm", "N*m", "kNm",
@@ -89,6 +92,9 @@ def check_one_field(base: dict, key: str, value: str) -> None:
     except JobInputError as err:
         if not value.strip() and err.field in REQUIRED_WHEN_BLANK.get(key, ()):
             assert_refusal_names(err, err.field)
+        elif err.field in CROSS_FIELD.get(key, ()):
+            assert_refusal_names(err, err.field)
+            assert "cannot give" in err.message or "no wall" in err.message
         else:
             assert_refusal_names(err, key)
         return

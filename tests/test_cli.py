@@ -88,7 +88,7 @@ def test_option_spelling(option, key):
 def test_every_option_reaches_the_job(capsys):
     argv = ["check", "--power", "11 kW", "--speed", "1470 rpm", "--ratio", "2", "--efficiency", "90%",
             "--service-factor", "1.25", "--peak-factor", "2.5", "--shaft", "round 45mm keyed",
-            "--candidate", "hex 45mm", "--material", "1045-hr", "--candidate-material", "4140-qt650",
+            "--candidate", "hex 50mm", "--material", "1045-hr", "--candidate-material", "4140-qt650",
             "--required-sf", "2"]
     result = run_json(capsys, argv)
     drive = result["drive"]

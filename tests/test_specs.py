@@ -92,7 +92,6 @@ def test_every_finish_word(finish):
         ("round 35mm keyed polished", "unknown word"),
         ("round 35mm polished", "polished"),  # a stray first word is read as part of the unit
         ("round 35mm key", "'key' needs width x depth"),
-        ("square 30mm keyed", "only checked on round"),
         ("round 1/0in", "divides by zero"),
     ],
 )
@@ -178,3 +177,9 @@ def test_a_stray_word_after_the_size_is_named_as_a_word(spec, word):
 @pytest.mark.parametrize("spec, size_m", [("round 35MM", 0.035), ("round 1-1/4 IN", 0.03175)])
 def test_shouted_units_are_read(spec, size_m):
     assert parse_spec(spec).size_m == pytest.approx(size_m, rel=1e-12)
+
+
+def test_keyed_square_is_accepted_with_its_keyseat_at_the_turned_seat():
+    g = parse_spec("square 30mm keyed")
+    assert g.profile == "square" and g.keyed
+    assert format_spec(g) == "square 30mm keyed"

@@ -22,7 +22,7 @@ ROOT = pathlib.Path(__file__).resolve().parent.parent
 sys.path.insert(0, str(ROOT))
 
 from workbench import unit_table, units  # noqa: E402
-from workbench.units import DENSITY, LENGTH, POWER, SPEED, STRESS, TORQUE, TWIST_RATE  # noqa: E402
+from workbench.units import DENSITY, FORCE, LENGTH, MASS, POWER, SPEED, STRESS, TORQUE, TWIST_RATE  # noqa: E402
 
 # the spellings a fitter types most, as they read after units.split_number's rewrites
 # ("Nm" -> "N*m", "lb-in" -> "lbf*in", '"' -> "in", "KW" -> "kW", "HP" -> "hp", ...)
@@ -34,17 +34,23 @@ SPELLINGS = {
     STRESS: ("Pa", "kPa", "MPa", "GPa", "psi", "ksi", "N/mm^2", "N/mm**2"),
     DENSITY: ("kg/m^3", "kg/m**3", "g/cm^3", "lb/in^3"),
     TWIST_RATE: ("deg/m", "degree/m", "deg/ft", "deg/in", "rad/m"),
+    MASS: ("kg", "g", "lb", "t"),
+    FORCE: ("N", "kN", "lbf"),
 }
 
 # the job inputs that read each kind (workbench/job.py, workbench/specs.py)
 FIELDS = {
     POWER: ("power",),
     SPEED: ("speed",),
-    LENGTH: ("pitch_diameter", "overhang", "shaft", "candidate"),
+    LENGTH: ("pitch_diameter", "overhang", "shaft", "candidate", "bearing_span", "load_from_bearing",
+             "hub_length", "journal", "seat", "fillet", "candidate_journal", "candidate_seat", "candidate_fillet",
+             "driven_from_bearing"),
     TORQUE: ("torque",),
     STRESS: ("material", "candidate_material"),
     DENSITY: ("material", "candidate_material"),
     TWIST_RATE: ("twist_limit",),
+    MASS: ("element_mass", "driven_mass"),
+    FORCE: ("driven_load",),
 }
 
 

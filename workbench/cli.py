@@ -5,6 +5,7 @@
     shaftbench substitute --shaft SPEC [--json]
     shaftbench stock --profile square [--system metric] [--materials a,b] [job options] [--json]
     shaftbench log ...                      the job log (list, show, export, import, card, ...)
+    shaftbench fit SIZE CLASS [--measured LEN ...] [--json]   ISO 286 limits and fits (cli_fit.py)
 
 Exit codes: 0 computed, 2 bad input (one line on stderr, never a traceback).
 Nothing heavy is imported at module level: ``--help`` and ``--version`` build no unit registry.
@@ -41,6 +42,34 @@ JOB_OPTIONS = (
     ("--criterion", "criterion", "fatigue criterion: goodman (default), gerber, asme-elliptic, soderberg"),
     ("--reliability", "reliability", "fatigue reliability, e.g. 0.9 (default) or 99%%"),
     ("--twist-limit", "twist_limit", "allowed twist, e.g. '0.25 deg/m' (default 1 deg over 20 diameters)"),
+    # the layout and the steps of the shaft (README "Layout and steps")
+    ("--bearing-span", "bearing_span", "bearing centre to centre (bare: mm); without it no deflection, slope or critical speed"),
+    ("--bearing-type", "bearing_type", "for the slope limit: deep-groove-ball (default), self-aligning-ball, spherical-ball, "
+                                       "spherical-roller, cylindrical-roller, tapered-roller"),
+    ("--element-position", "element_position", "overhung (default, beyond bearing 1 at --overhang) | between the bearings"),
+    ("--load-from-bearing", "load_from_bearing", "between: bearing 1 centre to the element's load line (bare: mm)"),
+    ("--hub-length", "hub_length", "hub length of the element = its seat and key length (bare: mm)"),
+    ("--element-mass", "element_mass", "mass of the element (bare: kg); its weight adds to the side load"),
+    ("--journal", "journal", "bearing journal diameter of the shaft as found (default: uniform)"),
+    ("--seat", "seat", "hub seat diameter of the shaft as found (default: uniform)"),
+    ("--fillet", "fillet", "shoulder fillet radius of the shaft as found (default r/d 0.02)"),
+    ("--candidate-journal", "candidate_journal", "journal the candidate is turned to (default: the existing journal)"),
+    ("--candidate-seat", "candidate_seat", "hub seat the candidate is turned to (default: the existing seat)"),
+    ("--candidate-fillet", "candidate_fillet", "shoulder fillet radius of the candidate (default r/d 0.02, the minimum to cut)"),
+    ("--driven-position", "driven_position", "a driven element on the shaft: between (the bearings) | far-end (beyond bearing 2)"),
+    ("--driven-from-bearing", "driven_from_bearing", "between: from bearing 1; far-end: beyond bearing 2 (bare: mm)"),
+    ("--driven-mass", "driven_mass", "mass of the driven element (bare: kg)"),
+    ("--driven-load", "driven_load", "radial load of the driven element besides its weight (bare: N)"),
+    ("--hub-material", "hub_material", "hub material for key crushing: steel (default), steel-s355, cast-iron-200, ..."),
+    # the turning sheet (workbench/turning_job.py)
+    ("--bearing", "bearing", "bearing designation (ISO 15), e.g. 6208 or 22210: journal length, fit, fillet limit"),
+    ("--bearing-mounting", "bearing_mounting", "pressed (default) | adapter-sleeve | insert (set-screw or eccentric-collar unit)"),
+    ("--rotating-ring", "rotating_ring", "ring that turns relative to the load: inner (default) | outer"),
+    ("--bearing-load", "bearing_load", "light | normal (default) | heavy, as a share of the bearing's rating"),
+    ("--journal-class", "journal_class", "journal class instead of the recommended one, e.g. k6"),
+    ("--seat-class", "seat_class", "hub seat class instead of the recommended one, e.g. j6"),
+    ("--key-fit", "key_fit", "keyseat width fit: free | normal (default) | tight (DIN 6885-1)"),
+    ("--turning-sheets", "turning_sheets", "sheets the report prints: candidate (default) | existing | both"),
 )
 
 
@@ -70,6 +99,9 @@ def _add_job_options(parser: argparse.ArgumentParser, only: tuple[str, ...] | No
     for option, key, text in JOB_OPTIONS:
         if only is None or key in only:
             group.add_argument(option, dest=key, metavar="TEXT", help=text)
+    if only is None:
+        group.add_argument("--as-bar", dest="as_bar", action="store_const", const="yes",
+                           help="the candidate runs through square-bore bearings and hubs as it is: no journal, no keyseat")
 
 
 def _add_output_options(parser: argparse.ArgumentParser) -> None:
@@ -112,9 +144,15 @@ def build_parser() -> argparse.ArgumentParser:
     stock.add_argument("--system", default="metric", help="metric | inch (default metric)")
     stock.add_argument("--materials", metavar="KEYS", help="comma-separated material keys (default: the job's)")
     stock.add_argument("--all", action="store_true", help="list every size, not only up to the first passes")
+    stock.add_argument("--keyed", action="store_true",
+                       help="keyed stock: each bar's hub seat carries a keyseat, whatever its profile "
+                            "(implied when the shaft as found is keyed)")
     stock.set_defaults(func=run_stock)
 
     _add_log_command(commands)
+    from workbench.cli_fit import add_fit_command
+
+    add_fit_command(commands)
     return parser
 
 
@@ -146,6 +184,8 @@ def _inputs_from(args: argparse.Namespace) -> dict[str, str]:
         value = getattr(args, key, None)
         if value is not None:
             inputs[key] = value
+    if getattr(args, "as_bar", None):
+        inputs["as_bar"] = "yes"
     return inputs
 
 
@@ -199,7 +239,7 @@ def run_stock(args: argparse.Namespace) -> int:
     from workbench.job import stock_inputs
 
     keys = [k.strip() for k in args.materials.split(",") if k.strip()] if args.materials else None
-    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.system.lower(), keys)
+    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.system.lower(), keys, keyed=args.keyed)
     if not args.all:
         result = {**result, "rows": _up_to_first_passes(result["rows"])}
     if args.json:

@@ -6,7 +6,8 @@ DEMO_META = {
     "asset": "CV-07 head drive",
     "location": "Brindlemoor Quarry, crusher line 2",
     "by": "demo fitter",
-    "note": "Head pulley shaft worn at both bearing seats; square bar from the rack with square-bore hubs.",
+    "note": "Jackshaft worn at both bearing seats; square bar from the rack, to be turned to the old 40 mm "
+            "journals and the keyed pulley seat.",
 }
 
 DEMO_INPUTS = {
@@ -20,8 +21,12 @@ DEMO_INPUTS = {
     "pitch_diameter": "200 mm",
     "overhang": "60 mm",
     "shaft": "round 40mm keyed",
-    "candidate": "square 40mm",
+    "candidate": "square 45mm",
     "material": "1045-cd",
+    "bearing_span": "450 mm",
+    "bearing_type": "self-aligning-ball",
+    "hub_length": "80 mm",
+    "element_mass": "6 kg",
 }
 
 

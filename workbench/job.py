@@ -17,6 +17,8 @@ from workbench.core.evaluate import ShaftCase, evaluate
 from workbench.core.fatigue import CRITERIA
 from workbench.core.loads import Mount
 from workbench.core.tables import material, material_for_size, materials, mount_factors
+from workbench.core.layout import LayoutError
+from workbench.job_layout import layout_dict, moment_diagram_dict, parse_layout, step_fields, with_plans
 from workbench.specs import parse_spec
 from workbench.units import (
     DENSITY,
@@ -36,6 +38,13 @@ INPUT_KEYS = (
     "power", "speed", "torque", "ratio", "efficiency", "service_factor", "peak_factor",
     "mount", "pitch_diameter", "overhang", "shaft", "candidate", "material", "candidate_material",
     "required_sf", "criterion", "reliability", "twist_limit",
+    # the layout and the steps (issue 8); see workbench/job_layout.py
+    "bearing_span", "bearing_type", "element_position", "load_from_bearing", "hub_length", "element_mass",
+    "journal", "seat", "fillet", "candidate_journal", "candidate_seat", "candidate_fillet",
+    "driven_position", "driven_from_bearing", "driven_mass", "driven_load", "as_bar", "hub_material",
+    # the turning sheet (workbench/turning_job.py)
+    "bearing", "bearing_mounting", "rotating_ring", "bearing_load", "journal_class", "seat_class", "key_fit",
+    "turning_sheets",
 )
 DEFAULT_MATERIAL = "1045-cd"
 MOUNT_ALIASES = {
@@ -122,10 +131,11 @@ def _mount(inputs: Mapping[str, str]) -> Mount:
     pd_text, oh_text = _given(inputs, "pitch_diameter"), _given(inputs, "overhang")
     if not pd_text:
         raise QuantityError("pitch_diameter", f"is needed for a {element} (e.g. 200 mm)")
-    if not oh_text:
+    between = (_given(inputs, "element_position").lower() == "between")
+    if not oh_text and not between:
         raise QuantityError("overhang", f"is needed for a {element}: bearing to load line (e.g. 60 mm)")
     pitch = parse_quantity("pitch_diameter", pd_text, LENGTH, "mm", low=5e-3, high=3.0)
-    overhang = parse_quantity("overhang", oh_text, LENGTH, "mm", high=2.0, allow_zero=True)
+    overhang = parse_quantity("overhang", oh_text, LENGTH, "mm", high=2.0, allow_zero=True) if oh_text else 0.0
     return Mount(element, factor, pitch, overhang)
 
 
@@ -198,13 +208,16 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
         mount = _mount(inputs)
         settings = _settings(inputs)
         cases = parse_cases(inputs)
-    except QuantityError as err:
+        layout_in = parse_layout(inputs, mount)
+        cases = with_plans(inputs, cases, layout_in)
+        checks, comparison = evaluate(loads, mount, cases, settings, layout_in.layout, layout_in.driven_load_N,
+                                      E_Pa=[_modulus(case) for case in cases], hub_material=layout_in.hub_material)
+    except (QuantityError, LayoutError) as err:
         raise JobInputError(err.field, err.message) from None
-    checks, comparison = evaluate(loads, mount, cases, settings)
     shafts = [_shaft_dict(case, check, inputs) for case, check in zip(cases, checks)]
     if solver:
         for shaft, case, check in zip(shafts, cases, checks):
-            if case.geometry.keyed:
+            if case.geometry.keyed and case.geometry.profile in ("round", "tube"):
                 shaft["keyseat_solver"] = keyseat_solver(case.geometry, check, loads.design_torque_Nm)
     result = {
         "program": {"name": "shaftbench", "version": __version__},
@@ -245,6 +258,11 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
         "verdict": shafts[-1]["verdict"],
         "cautions": list(CAUTIONS),
     }
+    result["layout"] = layout_dict(layout_in, checks[-1])
+    result["moment_diagram"] = moment_diagram_dict(checks[-1], loads)
+    from workbench.turning_job import attach_turning
+
+    attach_turning(result, inputs)
     return result
 
 
@@ -256,6 +274,7 @@ def _finite(value: float) -> float | None:
 def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -> dict:
     g = case.geometry
     section = check.section
+    step_section = check.steps[check.governing_step].section if check.steps else section
     dims = {"size_m": g.size_m}
     if g.second_m:
         dims["second_m"] = g.second_m
@@ -267,7 +286,7 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "spec": _given(inputs, "shaft" if case.role == "existing" else "candidate"),
         "profile": g.profile,
         "dimensions_m": dims,
-        "keyed": g.keyed,
+        "keyed": g.keyed or bool(case.plan and case.plan.keyed_seat and not case.plan.as_bar),
         "finish": g.finish,
         "shoulder": g.shoulder,
         "material": case.material.key,
@@ -276,8 +295,8 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "yield_Pa": case.material.yield_Pa,
         "area_m2": section.area_m2,
         "torsion_constant_m4": section.torsion_constant_m4,
-        "shear_per_torque_Pa_per_Nm": section.shear_per_torque_Pa_per_Nm,
-        "section_modulus_m3": section.section_modulus_m3,
+        "shear_per_torque_Pa_per_Nm": step_section.shear_per_torque_Pa_per_Nm,
+        "section_modulus_m3": step_section.section_modulus_m3,
         "max_shear_stress_Pa": check.max_shear_stress_Pa,
         "bending_moment_Nm": check.bending_moment_Nm,
         "bending_stress_Pa": check.bending_stress_Pa,
@@ -301,7 +320,8 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "governing": check.governing,
         "why": check.why,
         "methods": check.methods,
-        "notes": _material_notes(case),
+        "notes": _material_notes(case) + [n for n in check.notes],
+        **step_fields(check),
     }
 
 
@@ -325,6 +345,12 @@ def keyseat_solver(geometry, check: ShaftCheck, design_torque_Nm: float) -> dict
         "peak_location_m": list(solution.peak_location_m),
         "method": solution.method,
     }
+
+
+def _modulus(case: ShaftCase) -> float:
+    """Young's modulus [Pa] of a case's material: the table's, else 207 GPa (steel, Shigley 9th ed. Table A-5)."""
+    row = materials().get(case.material.key)
+    return row.E_Pa if row is not None else 207e9
 
 
 def _material_notes(case: ShaftCase) -> list[str]:
@@ -406,10 +432,14 @@ def _material_for_size(key: str):
     return material_at
 
 
-def stock_inputs(inputs: Mapping[str, str], profile: str, system: str = "metric", materials_keys=None) -> dict:
+def stock_inputs(inputs: Mapping[str, str], profile: str, system: str = "metric", materials_keys=None,
+                 keyed: bool = False) -> dict:
     """Check every stock size of ``profile`` in ``system`` as the candidate, in each material.
 
-    Rounds and tubes carry a keyseat when the shaft as found is keyed. Returns
+    Each bar is checked as it will be turned: to the existing journals and seat (or those given),
+    every step checked. Its seat carries a keyseat, whatever the profile, when the shaft as found is
+    keyed or ``keyed`` asks for keyed stock. A bar that cannot be turned to the journal gets a row
+    with verdict "fail" and the reason. Returns
     ``{"profile", "system", "rows": [...], "smallest": {material: row}, "cautions"}``; each row has
     ``spec`` and ``material`` ready to be taken as the job's candidate.
     """
@@ -431,20 +461,54 @@ def stock_inputs(inputs: Mapping[str, str], profile: str, system: str = "metric"
         for key in keys:  # fail early, naming the field, on an unknown material
             parse_material("material", key, _STOCK_PROBE_SIZE_M)
         mats = [_material_for_size(key) for key in keys]
+        layout_in = parse_layout(inputs, mount)
+        if existing is not None:  # the existing layout itself must be sound
+            with_plans(inputs, [ShaftCase("existing", existing, None)], layout_in)
     except QuantityError as err:
         raise JobInputError(err.field, err.message) from None
+    from workbench.core.steps import can_turn
     from workbench.core.substitution import largest_journal_m
 
-    keyed = bool(existing and existing.keyed)
-    rows = check_stock(profile, system, mats, loads, mount, settings, keyed=keyed)
-    journal_needed = existing.size_m if existing and existing.profile in ("round", "tube") else None
+    keyed = bool(keyed or (existing and existing.keyed))
+    e_pa = materials()[keys[0]].E_Pa if keys[0] in materials() else 207e9
+
+    def plan_for(geometry):
+        cases = ([ShaftCase("existing", existing, None)] if existing is not None else []) + [
+            ShaftCase("candidate", geometry, None)]
+        return with_plans(inputs, cases, layout_in)[-1].plan
+
+    rows = check_stock(profile, system, mats, loads, mount, settings, keyed=keyed, plan_for=plan_for,
+                       layout=layout_in.layout, driven_load_N=layout_in.driven_load_N, E_Pa=e_pa,
+                       hub_material=layout_in.hub_material)
+    journal_needed = None
+    if existing is not None and existing.profile in ("round", "tube"):
+        journal_needed = layout_in.sizes["journal"] or existing.size_m
+    if layout_in.sizes["candidate_journal"]:
+        journal_needed = layout_in.sizes["candidate_journal"]
     out_rows = []
     for row in rows:
         check = row.check
         journal = largest_journal_m(row.geometry)
+        gives = None if journal_needed is None else (
+            abs(journal - journal_needed) <= 1e-9 and row.geometry.profile in ("round", "tube")
+            or can_turn(row.geometry, journal_needed))
+        if check is None:
+            out_rows.append({
+                "largest_journal_m": journal, "gives_existing_journal": gives,
+                "label": row.stock.label + (" mm" if system == "metric" else " in"),
+                "spec": format_spec(row.geometry, system), "size_m": row.geometry.size_m,
+                "second_m": row.geometry.second_m, "material": row.material.key, "verdict": "fail",
+                "governing": "turning", "why": row.refused, "min_safety_factor": None,
+                "static_safety_factor": None, "fatigue_safety_factor": None, "twist_deg_per_m": None,
+                "mass_kg_per_m": None, "governing_step": None, "governing_step_label": None, "keyed": keyed,
+            })
+            continue
         out_rows.append({
+            "keyed": keyed,
+            "governing_step": check.governing_step,
+            "governing_step_label": check.steps[check.governing_step].step.label,
             "largest_journal_m": journal,
-            "gives_existing_journal": None if journal_needed is None else journal >= journal_needed - 1e-9,
+            "gives_existing_journal": gives,
             "label": row.stock.label + (" mm" if system == "metric" else " in"),
             "spec": format_spec(row.geometry, system),
             "size_m": row.geometry.size_m,

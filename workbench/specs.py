@@ -156,8 +156,7 @@ def _parse_sized(field: str, profile: str, size_text: str, words: list[str]) -> 
         else:
             raise QuantityError(field, f"unknown word {words[i]!r}; expected keyed, key WxD, a finish or a shoulder")
         i += 1
-    if options.get("keyed") and profile not in ("round", "tube"):
-        raise QuantityError(field, f"a keyseat is only checked on round shafts, not {profile}")
+    # ``keyed`` on a square, hex or flat bar: the keyseat is cut in its turned (round) hub seat
     if options.get("keyed") and options.get("flats"):
         raise QuantityError(field, "a keyseat and ground flats on the same section are not modelled; check each")
     if options.get("corner_radius_m") and options.get("chamfer_m"):

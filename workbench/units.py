@@ -58,6 +58,8 @@ TORQUE = Kind("torque", "N*m", "[energy]", "50 N*m or 400 lbf*in")
 STRESS = Kind("stress", "Pa", "[pressure]", "350 MPa or 50 ksi")
 DENSITY = Kind("density", "kg/m^3", "[mass]/[length]**3", "7850 kg/m^3")
 TWIST_RATE = Kind("twist per length", "deg/m", "1/[length]", "0.25 deg/m")
+MASS = Kind("mass", "kg", "[mass]", "8 kg or 18 lb")
+FORCE = Kind("force", "N", "[force]", "1200 N or 270 lbf")
 
 # Spellings the trade uses that pint would read as something else ("Nm" is a nano-metre).
 _REWRITES = (

@@ -90,8 +90,8 @@ def test_fit_facts_name_the_journal_limit():
 
 
 def test_stock_finder_smallest_passing_is_the_first_pass():
-    inputs = {"torque": "300 N*m", "service_factor": "1.5", "mount": "vbelt", "pitch_diameter": "200 mm",
-              "overhang": "60 mm", "shaft": "round 40mm keyed"}
+    inputs = {"torque": "150 N*m", "service_factor": "1.5", "mount": "vbelt", "pitch_diameter": "200 mm",
+              "overhang": "40 mm", "shaft": "round 40mm keyed"}
     result = stock_inputs(inputs, "square", "metric", ["1045-cd"])
     rows = [r for r in result["rows"] if r["material"] == "1045-cd"]
     best = result["smallest"]["1045-cd"]
@@ -114,18 +114,19 @@ def test_substitute_inputs_lists_every_profile_both_bases():
     assert result["cautions"]
 
 
-def test_stock_finder_names_the_smallest_bar_that_also_gives_the_existing_journals():
-    """A square of side a turns to journals of at most a (its inscribed circle): for a 40 mm round
-    as found, the journal-capable square is the first passing square of side >= 40 mm."""
+def test_stock_finder_checks_each_bar_turned_to_the_existing_journals():
+    """A square of side a turns to journals of at most a less the clean-up allowance: for a 40 mm
+    round as found, squares that cannot give 40 mm + 0.05 mm upper limit + 1 mm clean-up are rows
+    that fail with the reason, and the smallest passing square gives the existing journals."""
     inputs = {"torque": "150 N*m", "mount": "vbelt", "pitch_diameter": "200 mm", "overhang": "60 mm",
               "shaft": "round 40mm keyed"}
     result = stock_inputs(inputs, "square", "metric", ["1045-cd"])
     smallest = result["smallest"]["1045-cd"]
-    journal = result["smallest_with_existing_journal"]["1045-cd"]
-    assert smallest["size_m"] < 0.040 and smallest["gives_existing_journal"] is False
-    assert journal["size_m"] >= 0.040 - 1e-12 and journal["verdict"] == "pass"
-    bigger_passing = [r for r in result["rows"] if r["verdict"] == "pass" and r["size_m"] >= 0.040 - 1e-12]
-    assert journal == bigger_passing[0]
+    assert smallest["size_m"] >= 0.04105 - 1e-12 and smallest["gives_existing_journal"] is True
+    assert result["smallest_with_existing_journal"]["1045-cd"] == smallest
+    small = [r for r in result["rows"] if r["size_m"] < 0.04105]
+    assert small and all(r["verdict"] == "fail" and "cannot give a 40 mm journal" in r["why"] for r in small)
+    assert all(r["keyed"] for r in result["rows"])  # the hub is keyed: every bar's seat is keyed
 
 
 def test_stock_finder_never_borrows_strength_from_another_bar_size():

@@ -152,7 +152,6 @@ def test_verification_shapes():
 @pytest.mark.parametrize(
     "geometry",
     [
-        ShaftGeometry("hex", 0.03, keyed=True),
         ShaftGeometry("tube", 0.05, 0.06),
         ShaftGeometry("flat", 0.05),
         ShaftGeometry("round", 0.03, flats=3, flat_depth_m=0.002),
@@ -165,3 +164,11 @@ def test_verification_shapes():
 def test_impossible_profiles_are_refused(geometry):
     with pytest.raises(ValueError):
         P.profile_polygon(geometry)
+
+
+def test_a_keyed_square_keeps_its_keyseat_for_the_turned_seat_not_its_own_section():
+    """``keyed`` on a square, hex or flat bar is cut in the turned hub seat: the bar's own
+    section (its polygon) is the plain profile."""
+    keyed = P.profile_polygon(ShaftGeometry("hex", 0.03, keyed=True))
+    plain = P.profile_polygon(ShaftGeometry("hex", 0.03))
+    assert keyed.outer == plain.outer

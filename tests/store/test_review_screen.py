@@ -103,7 +103,7 @@ async def test_markup_in_user_text_is_shown_literally(tmp_path):
     async with app.run_test(size=SIZE) as pilot:
         screen = app.screen
         await _settle(pilot, screen, 1)
-        cell = screen.query_one(DataTable).get_row_at(0)[2]
+        cell = screen.query_one(DataTable).get_row_at(0)[screen.columns.index("asset")]
         assert isinstance(cell, Text) and cell.plain == "[bold]P-1[/]" and not cell.spans
         detail = screen.query_one("#review-detail", Static)
         from rich.console import Console
@@ -254,3 +254,51 @@ async def test_a_missing_log_says_so_without_creating_it(tmp_path):
         await _settle(pilot, app.screen, 1)
         assert "no job log" in str(app.screen.query_one("#review-status", Static).render())
     assert not path.exists()
+
+
+
+@pytest.mark.parametrize("size", [(80, 24), (120, 40)])
+def test_the_log_chooses_its_columns_by_width(tmp_path, size):
+    from workbench.tui.screens.review import choose_columns
+
+    path = tmp_path / "jobs.sqlite3"
+    _fill(path, 3)
+
+    @run_async
+    async def drive() -> None:
+        app = Host(path)
+        async with app.run_test(size=size) as pilot:
+            screen = app.screen
+            await _settle(pilot, screen, 1)
+            table = screen.query_one(DataTable)
+            # the verdict column is there and wide enough for the word
+            assert {"id", "saved", "verdict", "asset"} <= set(screen.columns)
+            verdict_column = next(c for c in table.columns.values() if c.key == "verdict")
+            assert verdict_column.width >= len("MARGINAL")
+            # every column fits on the screen: none is cut off at the right
+            used = sum(c.width + 2 for c in table.columns.values())
+            assert used <= table.size.width
+            # in the list, the footer shows the keys a planner needs, whole
+            await pilot.press("down")
+            await pilot.pause(0.1)
+            region = screen.query_one("Footer").region
+            assert region.width == size[0]
+            shown = [key for key in screen.query("FooterKey") if key.region.right <= size[0]]
+            labels = " ".join(str(k.description) for k in shown)
+            for needed in ("Close", "Reopen", "Card", "Recheck"):
+                assert needed in labels, labels
+            # the preview shows values, not bare labels
+            from rich.console import Console
+
+            console = Console(width=size[0], record=True, file=io.StringIO())
+            detail = screen.query_one("#review-detail", Static)
+            console.print(detail.content)
+            preview = console.export_text()
+            demo = result_for("overloaded")  # Asset 2, the newest of three, is the overloaded job
+            assert "Asset 2" in preview and demo["verdict"].upper() in preview
+            assert f"{demo['drive']['design_torque_Nm']:.3g}"[:3] in preview
+
+    drive()
+    # below the room for the extra columns only the four kept ones remain, and all fit
+    assert [key for key, _ in choose_columns(50)] == ["id", "saved", "verdict", "asset"]
+    assert sum(w + 2 for _, w in choose_columns(200)) == 200

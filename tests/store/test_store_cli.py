@@ -72,7 +72,16 @@ def test_show_reports_the_recheck(filled, log_path, capsys, monkeypatch):
     assert json.loads(capsys.readouterr().out)["inputs"] == JOB_INPUTS["demo"]
 
 
-@pytest.mark.parametrize("fmt", ["csv", "json"])
+def test_csv_export_is_flat(filled, log_path, tmp_path):
+    import csv
+
+    out_file = tmp_path / "jobs.csv"
+    assert run(["log", "export", "--format", "csv", "-o", str(out_file), "--log", str(log_path)]) == 0
+    rows = list(csv.DictReader(out_file.open(newline="")))
+    assert len(rows) == 2 and rows[0]["existing_spec"] and "inputs" not in rows[0]
+
+
+@pytest.mark.parametrize("fmt", ["json"])
 def test_export_then_import_into_a_new_log(filled, log_path, tmp_path, fmt, capsys):
     out_file = tmp_path / f"jobs.{fmt}"
     assert run(["log", "export", "--format", fmt, "-o", str(out_file), "--log", str(log_path)]) == 0

@@ -86,6 +86,13 @@ class ShaftCheck:
     governing: str
     why: str
     methods: dict[str, str] = field(default_factory=dict)
+    steps: tuple = ()  # StepCheck items (workbench.core.step_checks), the shaft checked step by step
+    governing_step: int | None = None  # index into ``steps`` whose figures the shaft's are
+    notes: tuple[str, ...] = ()  # what the step check assumed (layout defaults, bounds used)
+    key: object = None  # KeyFigures of the hub-seat key (workbench.core.stiffness), when keyed
+    stiffness: object = None  # StiffnessFigures (deflection, slopes, critical speed), when the span is known
+    placed: object = None  # the layout placed along the shaft (workbench.core.layout.Placed)
+    side_loads: tuple = ()  # (x_m, force_N) side loads at the design torque, for the moment diagram
 
     @property
     def min_safety_factor(self) -> float:
@@ -118,6 +125,58 @@ def _feature_factors(section: Section, tensile_Pa: float) -> tuple[str, float, f
     return (worst[0], *(max(row[i] for row in rows) for i in range(1, 5)))
 
 
+def static_torque_Nm(loads: DriveLoads) -> float:
+    """The torque the static (first-cycle yield) check is made at [N*m]: the peak torque."""
+    return loads.peak_torque_Nm
+
+
+@dataclass(frozen=True)
+class SectionFigures:
+    """Stresses [Pa] and safety factors [-] of one section under one moment and torque."""
+
+    shear_Pa: float
+    bending_Pa: float
+    von_mises_Pa: float
+    tresca_Pa: float
+    marin: dict[str, float]
+    endurance_Pa: float
+    alt_Pa: float
+    mean_Pa: float
+    peak_von_mises_Pa: float
+    static_sf: float
+    shear_yield_sf: float
+    fatigue_sf: float
+
+
+def section_figures(
+    section: Section, material: MaterialProps, kf: float, kfs: float, design_torque_Nm: float,
+    static_torque_Nm_: float, moment_design_Nm: float, moment_static_Nm: float, settings: Settings,
+) -> SectionFigures:
+    """Stresses and safety factors of one section (the equations of :func:`check_shaft`).
+
+    Nominal tau = T (tau/T), sigma = M / Z; fatigue with fully reversed bending and steady torsion at
+    the design torque (Shigley 9th ed., Eqs. 7-5..7-14, Se by Eq. 6-18 with kb of this section);
+    static first-cycle yield at the static torque and its moment (Eqs. 7-15/7-16); shear yield
+    n = 0.577 Sy / (Kfs tau_static).
+    """
+    g = section.geometry
+    tau_per_t = section.shear_per_torque_Pa_per_Nm
+    z = section.section_modulus_m3
+    tau = design_torque_Nm * tau_per_t
+    sigma = moment_design_Nm / z
+    marin = fatigue.marin_factors(g.finish, material.tensile_Pa, section.size_factor_diameter_m, settings.reliability)
+    se = fatigue.endurance_limit_Pa(material.tensile_Pa, marin)
+    alt, mean = fatigue.von_mises_amplitudes(kf * sigma, 0.0, 0.0, kfs * tau)
+    n_fatigue = fatigue.fatigue_safety_factor(settings.criterion, alt, mean, se, material.tensile_Pa, material.yield_Pa)
+    tau_peak = static_torque_Nm_ * tau_per_t
+    sigma_peak = moment_static_Nm / z
+    peak_vm = fatigue.first_cycle_yield_stress_Pa(kf * sigma_peak, kfs * tau_peak)
+    n_static = material.yield_Pa / peak_vm if peak_vm > 0 else math.inf
+    n_shear = DISTORTION_ENERGY_SHEAR * material.yield_Pa / (kfs * tau_peak) if tau_peak > 0 else math.inf
+    return SectionFigures(tau, sigma, math.sqrt(sigma**2 + 3.0 * tau**2), math.sqrt(sigma**2 + 4.0 * tau**2),
+                          marin, se, alt, mean, peak_vm, n_static, n_shear, n_fatigue)
+
+
 def twist_limit_deg_per_m(section: Section, settings: Settings) -> float:
     """Allowed twist rate [deg/m]: the stated limit, or 1 degree over 20 diameters (common practice),
     using the diameter of the round of equal torsional stiffness."""
@@ -141,29 +200,17 @@ def check_shaft(
     """
     g = section.geometry
     feature, kt, kts, kf, kfs = _feature_factors(section, material.tensile_Pa)
-    tau_per_t = section.shear_per_torque_Pa_per_Nm
-    z = section.section_modulus_m3
 
     force_design = side_load_N(loads.design_torque_Nm, mount.pitch_diameter_m, mount.load_factor)
     moment_design = overhung_moment_Nm(force_design, mount.overhang_m)
-    force_peak = side_load_N(loads.peak_torque_Nm, mount.pitch_diameter_m, mount.load_factor)
+    force_peak = side_load_N(static_torque_Nm(loads), mount.pitch_diameter_m, mount.load_factor)
     moment_peak = overhung_moment_Nm(force_peak, mount.overhang_m)
 
-    tau = loads.design_torque_Nm * tau_per_t
-    sigma = moment_design / z
-    von_mises = math.sqrt(sigma**2 + 3.0 * tau**2)
-    tresca = math.sqrt(sigma**2 + 4.0 * tau**2)
-
-    marin = fatigue.marin_factors(g.finish, material.tensile_Pa, section.size_factor_diameter_m, settings.reliability)
-    se = fatigue.endurance_limit_Pa(material.tensile_Pa, marin)
-    alt, mean = fatigue.von_mises_amplitudes(kf * sigma, 0.0, 0.0, kfs * tau)
-    n_fatigue = fatigue.fatigue_safety_factor(settings.criterion, alt, mean, se, material.tensile_Pa, material.yield_Pa)
-
-    tau_peak = loads.peak_torque_Nm * tau_per_t
-    sigma_peak = moment_peak / z
-    peak_vm = fatigue.first_cycle_yield_stress_Pa(kf * sigma_peak, kfs * tau_peak)
-    n_static = material.yield_Pa / peak_vm if peak_vm > 0 else math.inf
-    n_shear = DISTORTION_ENERGY_SHEAR * material.yield_Pa / (kfs * tau_peak) if tau_peak > 0 else math.inf
+    fig = section_figures(section, material, kf, kfs, loads.design_torque_Nm, static_torque_Nm(loads),
+                          moment_design, moment_peak, settings)
+    tau, sigma, von_mises, tresca = fig.shear_Pa, fig.bending_Pa, fig.von_mises_Pa, fig.tresca_Pa
+    marin, se, alt, mean, peak_vm = fig.marin, fig.endurance_Pa, fig.alt_Pa, fig.mean_Pa, fig.peak_von_mises_Pa
+    n_static, n_shear, n_fatigue = fig.static_sf, fig.shear_yield_sf, fig.fatigue_sf
 
     twist = math.degrees(loads.design_torque_Nm / (material.G_Pa * section.torsion_constant_m4))
     limit = twist_limit_deg_per_m(section, settings)

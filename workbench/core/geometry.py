@@ -22,7 +22,8 @@ class ShaftGeometry:
     size_m:    round: diameter; tube: outside diameter; square: side; flat: width (long side);
                hex: size across flats  [m]
     second_m:  tube: inside diameter; flat: thickness (short side); otherwise 0  [m]
-    keyed:     a standard parallel-key keyseat is cut (round and tube only); its size comes from
+    keyed:     a standard parallel-key keyseat is cut (in a round or tube section; on a square, hex or
+               flat bar in its turned hub seat); its size comes from
                the key table for ``size_m`` unless ``key_width_m``/``key_depth_m`` are given
     key_standard: "iso" (DIN 6885-1 / ISO 773 metric) or "ansi" (ANSI B17.1 inch)
     key_width_m, key_depth_m, key_radius_m: an explicit keyseat (0 = from the table)  [m]

@@ -274,8 +274,7 @@ def profile_polygon(geometry: ShaftGeometry,
     g = geometry
     if g.size_m <= 0:
         raise ValueError("size must be positive")
-    if g.keyed and g.profile not in ("round", "tube"):
-        raise ValueError(f"a keyseat is only modelled in a round or a tube, not a {g.profile}")
+    # a keyed square, hex or flat bar carries its keyseat in the turned seat, not in the bar's own section
     if g.flats and g.profile != "round":
         raise ValueError("flats are only modelled on a round")
     if g.profile in ("round", "tube"):

@@ -23,6 +23,22 @@ from textual.widgets import DataTable, Footer, Input, Label, Select, Static
 from textual.worker import get_current_worker
 
 PAGE_SIZE = 100
+NARROW_BELOW = 110
+"""Below this many columns the list takes the full width, a short summary of the highlighted job
+sits under it instead of the whole card beside it, and the footer is compact."""
+COLUMNS: tuple[tuple[str, str, int], ...] = (
+    # key, heading, width (the asset column takes what is left, at least its width here)
+    ("id", "id", 5),
+    ("saved", "saved (UTC)", 16),
+    ("verdict", "verdict", 8),
+    ("asset", "asset", 12),
+    ("location", "location", 12),
+    ("material", "material", 14),
+    ("by", "by", 10),
+)
+"""The list's columns in the order they are dropped last: id, saved, verdict and asset always show;
+location, material and who checked it are added while the width allows."""
+CELL_PADDING = 2
 VERDICT_CHOICES = [("pass", "pass"), ("marginal", "marginal"), ("fail", "fail")]
 CARD_SUFFIXES = {".html": "html", ".htm": "html", ".svg": "svg", ".txt": "text"}
 
@@ -33,6 +49,58 @@ def _valid_date(text: str) -> bool:
     except ValueError:
         return False
     return True
+
+
+def choose_columns(width: int) -> list[tuple[str, int]]:
+    """The list's columns for a table ``width`` cells wide, as (key, width): the first four of
+    COLUMNS always, then the others while they fit; the asset column takes the room left over."""
+    chosen = list(COLUMNS[:4])
+    for column in COLUMNS[4:]:
+        if sum(w + CELL_PADDING for _, _, w in chosen) + column[2] + CELL_PADDING > width:
+            break
+        chosen.append(column)
+    spare = max(0, width - sum(w + CELL_PADDING for _, _, w in chosen))
+    growing = [key for key, _, _ in chosen if key in ("asset", "location")]  # split what is left
+    share = {key: spare // len(growing) + (1 if i < spare % len(growing) else 0) for i, key in enumerate(growing)}
+    return [(key, w + share.get(key, 0)) for key, _, w in chosen]
+
+
+def job_summary(record: Any) -> Text:
+    """A few lines that say what a stored job is and how it came out (the narrow screen's preview)."""
+    from workbench.report.jobcard import deciding_shaft, literal, number, shafts_of, verdict_text, when
+
+    result = record.result if isinstance(record.result, dict) else {}
+    text = Text.assemble((f"job {record.id}  ", "bold"), verdict_text(result.get("verdict")))
+    shaft = deciding_shaft(result)
+    if shaft:
+        text.append_text(Text.assemble("  ", literal(shaft.get("role", "")), " ", literal(shaft.get("spec", ""))))
+        if shaft.get("governing"):
+            text.append_text(Text.assemble(("  governed by ", "dim"), literal(shaft.get("governing"))))
+    if shaft.get("why"):
+        text.append_text(Text.assemble("\n", ("why: ", "dim"), literal(shaft.get("why"))))
+    text.append_text(Text.assemble(
+        "\n", ("asset ", "dim"), literal(record.asset or "-"), ("  location ", "dim"), literal(record.location or "-"),
+        ("  by ", "dim"), literal(record.by or "-"), ("  saved ", "dim"), when(record.created_at),
+    ))
+    drive = result.get("drive") if isinstance(result.get("drive"), dict) else {}
+    text.append_text(Text.assemble(
+        "\n", ("design torque ", "dim"), number(drive.get("design_torque_Nm"), 1, "N·m"),
+        ("  shaft speed ", "dim"), number(drive.get("shaft_speed_rpm"), 1, "rpm"),
+    ))
+    for s in shafts_of(result):
+        text.append_text(Text.assemble(
+            "\n", (f"{s.get('role', 'shaft')}: ", "dim"), literal(s.get("spec", "")), "  ",
+            literal(s.get("material_name") or s.get("material") or ""),
+            ("  SF static ", "dim"), number(s.get("static_safety_factor")),
+            (" fatigue ", "dim"), number(s.get("fatigue_safety_factor")), "  ", verdict_text(s.get("verdict")),
+        ))
+    outcome = getattr(record, "outcome", "") or "not recorded"
+    text.append_text(Text.assemble(
+        "\n", ("fitted: ", "dim"), literal(record.fitted or "not recorded"), ("  outcome: ", "dim"), literal(outcome),
+    ))
+    if record.note:
+        text.append_text(Text.assemble("\n", ("note: ", "dim"), literal(record.note)))
+    return text
 
 
 class ConfirmScreen(ModalScreen[bool]):
@@ -100,21 +168,27 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
     ReviewScreen #review-table { width: 3fr; }
     ReviewScreen #review-detail-scroll { width: 2fr; border-left: solid $primary; padding: 0 1; }
     ReviewScreen #review-status { height: 1; padding: 0 1; background: $boost; }
+    ReviewScreen.-narrow #review-body { layout: vertical; }
+    ReviewScreen.-narrow #review-table { width: 1fr; height: 1fr; }
+    ReviewScreen.-narrow #review-detail-scroll { width: 1fr; height: 9; border-left: none;
+                                                 border-top: solid $primary; }
+    ReviewScreen.-narrow #review-verdict { width: 20; }
+    ReviewScreen.-narrow .review-date { width: 14; }
     """
 
     BINDINGS = [
         Binding("escape", "close", "Close", id="review.close", tooltip="Leave the filter, or close the log"),
         Binding("o", "reopen", "Reopen", id="review.reopen", tooltip="Put this job back on the sheet"),
-        Binding("c", "duplicate", "Copy as new", id="review.duplicate",
+        Binding("c", "duplicate", "Copy", id="review.duplicate",
                 tooltip="Start a new job from this one's inputs"),
         Binding("d", "delete", "Bin", id="review.delete", tooltip="Move this job to the bin (asks first)"),
         Binding("r", "restore", "Restore", id="review.restore", tooltip="Bring this job back from the bin"),
         Binding("x", "card", "Card", id="review.card", tooltip="Write this job's card to a file"),
-        Binding("t", "recheck", "Check today", id="review.recheck",
+        Binding("t", "recheck", "Recheck", id="review.recheck",
                 tooltip="Recompute with today's program and list what differs"),
         Binding("b", "toggle_bin", "Show bin", id="review.bin", tooltip="Switch between the log and the bin"),
-        Binding("n", "page(1)", "Next page", id="review.next"),
-        Binding("p", "page(-1)", "Prev page", id="review.prev"),
+        Binding("n,pagedown", "page(1)", "Next page", id="review.next"),
+        Binding("p,pageup", "page(-1)", "Prev page", id="review.prev"),
         Binding("slash", "focus_filter", "Filter", id="review.filter", tooltip="Type to filter"),
         Binding("down", "to_table", "Jobs", id="review.to_table", show=False,
                 tooltip="From the filter, move to the list of jobs"),
@@ -140,15 +214,17 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         self.rechecks: dict[int, Any] = {}
         self.loads = 0
         """How many pages have been shown (tests wait on it)."""
+        self.columns: tuple[str, ...] = ()
+        """Keys of the columns the list shows now (chosen by width, see COLUMNS)."""
 
     # -- layout ---------------------------------------------------------------------------
 
     def compose(self) -> ComposeResult:
         with Horizontal(id="review-filters"):
-            yield Input(placeholder="filter: asset, location, notes, material", id="review-text")
+            yield Input(placeholder="filter: asset, spec, name, notes, verdict…", id="review-text")
             yield Select(VERDICT_CHOICES, prompt="any verdict", id="review-verdict")
-            yield Input(placeholder="since YYYY-MM-DD", id="review-since", classes="review-date")
-            yield Input(placeholder="until YYYY-MM-DD", id="review-until", classes="review-date")
+            yield Input(placeholder="since Y-M-D", id="review-since", classes="review-date")
+            yield Input(placeholder="until Y-M-D", id="review-until", classes="review-date")
         with Horizontal(id="review-body"):
             yield DataTable(id="review-table", cursor_type="row", zebra_stripes=True)
             with VerticalScroll(id="review-detail-scroll"):
@@ -157,12 +233,41 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         yield Footer()
 
     def on_mount(self) -> None:
-        table = self.query_one(DataTable)
-        for label, key in (("id", "id"), ("saved (UTC)", "saved"), ("asset", "asset"),
-                           ("location", "location"), ("verdict", "verdict"), ("material", "material")):
-            table.add_column(label, key=key)
+        self._fit_to(self.size.width)
         self.query_one("#review-text", Input).focus()  # type to filter straight away
         self.reload()
+
+    def on_resize(self, event: Any) -> None:
+        self._fit_to(event.size.width)
+
+    def _fit_to(self, width: int) -> None:
+        """Lay the screen out for ``width`` columns: narrow or wide, and the list's columns."""
+        narrow = width < NARROW_BELOW
+        self.set_class(narrow, "-narrow")
+        self.query_one(Footer).compact = narrow
+        table_width = width - 2 if narrow else (width * 3) // 5 - 2
+        chosen = choose_columns(table_width)
+        if tuple(key for key, _ in chosen) == self.columns and self.query_one(DataTable).columns:
+            return
+        self.columns = tuple(key for key, _ in chosen)
+        table = self.query_one(DataTable)
+        table.clear(columns=True)
+        headings = {key: heading for key, heading, _ in COLUMNS}
+        for key, column_width in chosen:
+            table.add_column(headings[key], key=key, width=column_width)
+        if self.records:
+            self._fill_rows(list(self.records.values()))
+
+    def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
+        """Hide keys that do nothing here (restore outside the bin, paging a single page), so the
+        footer has room for the ones that do."""
+        if action == "restore":
+            return self.show_bin
+        if action == "delete":
+            return not self.show_bin
+        if action == "page":
+            return self.total > self.page_size
+        return True
 
     # -- loading --------------------------------------------------------------------------
 
@@ -215,23 +320,34 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         self.loads += 1
 
     def _show_page(self, records: list[Any], total: int) -> None:
-        from workbench.report.jobcard import literal, verdict_text, when
-
         table = self.query_one(DataTable)
         keep = self.current_id()
-        table.clear()
         self.records = {r.id: r for r in records}
         self.total = total
-        for r in records:
-            table.add_row(
-                Text(str(r.id), justify="right"), when(r.created_at), literal(r.asset),
-                literal(r.location), verdict_text(r.verdict), literal(r.material), key=str(r.id),
-            )
+        self._fill_rows(records)
         if keep in self.records:
             table.move_cursor(row=table.get_row_index(str(keep)))
         self._update_detail()
         self._update_status()
+        self.refresh_bindings()
         self.loads += 1
+
+    def _fill_rows(self, records: list[Any]) -> None:
+        from workbench.report.jobcard import literal, verdict_text, when
+
+        table = self.query_one(DataTable)
+        table.clear()
+        cells = {
+            "id": lambda r: Text(str(r.id), justify="right"),
+            "saved": lambda r: when(r.created_at).removesuffix(" UTC"),
+            "verdict": lambda r: verdict_text(r.verdict),
+            "asset": lambda r: literal(r.asset),
+            "location": lambda r: literal(r.location),
+            "material": lambda r: literal(r.material),
+            "by": lambda r: literal(r.by),
+        }
+        for r in records:
+            table.add_row(*(cells[key](r) for key in self.columns), key=str(r.id))
 
     def _status(self, message: str) -> None:
         self.query_one("#review-status", Static).update(Text(message))
@@ -285,7 +401,7 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
             from workbench.cli_log import recheck_text
 
             parts.append(recheck_text(self.rechecks[record.id]))
-        parts.append(job_card_for_record(record))
+        parts.append(job_summary(record) if self.has_class("-narrow") else job_card_for_record(record))
         detail.update(Group(*parts))
 
     # -- actions --------------------------------------------------------------------------
@@ -323,6 +439,7 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
 
     def action_toggle_bin(self) -> None:
         self.show_bin = not self.show_bin
+        self.refresh_bindings()
         self.reload()
 
     def action_delete(self) -> None:

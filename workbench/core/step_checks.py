@@ -1,0 +1,206 @@
+"""Each step of a shaft checked at its own moment and torque; the shaft's figures are its governing step's.
+
+Per step (Shigley's Mechanical Engineering Design, 9th ed., Ch. 6-7, as in :mod:`workbench.core.checks`):
+nominal stresses on the step's own section; its own Kt/Kts:
+- hub seat: the keyseat (data/stress_raisers.csv, Shigley 9th ed. Table 7-1, end-mill keyseat);
+- shoulder: Peterson's stepped-shaft fits (:mod:`workbench.core.shoulder_factors`) from D/d and r/d;
+  a shoulder at the end of a keyed seat takes, factor by factor, the LARGER of the keyseat's and the
+  shoulder's Kt, Kts, Kf, Kfs (the keyseat may run out into the fillet); a stress raiser typed in the
+  spec ("sharp-shoulder", "round-shoulder") is Table 7-1's and is taken at the hub seat's shoulder;
+- journal and body: plain (a non-round body's own peak stress is in its section's tau/T);
+its own Marin size factor (kb of the step's size); Kf, Kfs by Neuber (Shigley 9th ed. Eq. 6-33);
+static (first-cycle yield) and fatigue safety factors. The governing step is the one with the
+lowest of its static and fatigue factors (on a tie, the one with the larger Kf + Kfs, then the first).
+No solver is called here: journals and seats are rounds (closed form), the body is the section the
+bar already has.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+
+from workbench.core import fatigue
+from workbench.core.checks import (
+    MARGINAL_BAND, MaterialProps, SectionFigures, Settings, ShaftCheck, _verdict, check_shaft, section_figures, static_torque_Nm,
+)
+from workbench.core.drive import DriveLoads
+from workbench.core.layout import Placed, SideLoads, max_moment_Nm, point_loads, torque_fraction, GRAVITY_M_S2
+from workbench.core.loads import Mount, side_load_N
+from workbench.core.sections import Section, section_for
+from workbench.core.shoulder_factors import shoulder_factors
+from workbench.core.steps import Step
+from workbench.core.stiffness import key_figures, layout_verdict, stiffness_figures
+from workbench.core.stress_raisers import stress_raisers
+from workbench.core.tables import key_for_diameter
+
+_WORDS = {"sharp": "sharp-shoulder", "rounded": "round-shoulder"}
+
+
+@dataclass(frozen=True)
+class StepCheck:
+    """One step checked: its moments [N*m], torques [N*m], factors [-] and figures."""
+
+    step: Step
+    section: Section
+    bending_moment_Nm: float  # at the design torque (with the elements' weights)
+    static_moment_Nm: float  # at the static-check torque
+    torque_Nm: float  # design torque carried by the step
+    static_torque_Nm: float
+    feature: str
+    Kt: float
+    Kts: float
+    Kf: float
+    Kfs: float
+    figures: SectionFigures
+    notes: tuple[str, ...] = ()
+
+    @property
+    def min_safety_factor(self) -> float:
+        return min(self.figures.static_sf, self.figures.fatigue_sf)
+
+    @property
+    def where(self) -> str:
+        """'hub seat, keyseat and shoulder, 35 mm' — the step, its raisers and its size."""
+        d_mm = self.step.diameter_m * 1000.0
+        size = f"{d_mm:.4g} mm"
+        label = self.step.label
+        if self.feature and self.feature != "plain bar" and self.feature not in label:
+            label = f"{label}, {self.feature}"
+        return f"{label}, {size}"
+
+
+def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float, list[str]]:
+    """(feature words, Kt, Kts, Kf, Kfs, notes) of a step; the larger of each where raisers meet."""
+    table = stress_raisers()
+    rows = []  # (name, Kt, Kts, notch radius)
+    notes: list[str] = []
+    g = step.geometry
+    d_m = section.size_factor_diameter_m
+    if step.keyed and g.profile in ("round", "tube"):
+        raiser = table["keyseat"]
+        rows.append(("keyseat", raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
+    if step.kind == "shoulder" and step.larger_m > step.diameter_m * (1.0 + 1e-9):
+        factors = shoulder_factors(step.larger_m, step.diameter_m, step.fillet_m, body_round=step.larger_round)
+        rows.append(("shoulder", factors.Kt, factors.Kts, step.fillet_m))
+        notes.extend(note if "circumscribed" in note else f"{step.label}: {note}" for note in factors.notes)
+    if step.feature_word in _WORDS:
+        raiser = table[_WORDS[step.feature_word]]
+        rows.append((raiser.feature, raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
+    if not rows:
+        return "plain bar", 1.0, 1.0, 1.0, 1.0, notes
+    sqrt_a_b = fatigue.neuber_sqrt_a_bending(tensile_Pa)
+    sqrt_a_t = fatigue.neuber_sqrt_a_torsion(tensile_Pa)
+    out = []
+    for name, kt, kts, radius in rows:
+        out.append((name, kt, kts, fatigue.fatigue_notch_factor(kt, radius, sqrt_a_b),
+                    fatigue.fatigue_notch_factor(kts, radius, sqrt_a_t)))
+    names = [row[0] for row in out]
+    words = names[0] if len(names) == 1 else ", ".join(names[:-1]) + " and " + names[-1]
+    return (words, *(max(row[i] for row in out) for i in range(1, 5)), notes)
+
+
+def _section(step: Step, body_section: Section) -> Section:
+    if step.kind == "body":
+        return body_section
+    g = step.geometry
+    key = key_for_diameter(g.size_m, g.key_standard) if g.keyed and not g.key_width_m else None
+    return section_for(g, key)
+
+
+def check_steps(
+    steps: list[Step], placed: Placed, body_section: Section, material: MaterialProps, loads: DriveLoads,
+    mount: Mount, settings: Settings, driven_load_N: float = 0.0, notes: tuple[str, ...] = (),
+    E_Pa: float = 207e9, hub_material: str | None = None,
+) -> ShaftCheck:
+    """Every step checked; the ShaftCheck carries the governing step's figures and all the steps.
+
+    Area, torsion constant, mass and twist stay those of the bar as typed (``body_section``); the
+    static-check torque is :func:`workbench.core.checks.static_torque_Nm`. The side load of the
+    driving element is 2 T K / D at each torque level; weights (m g) and the driven element's load
+    are the same at both.
+    """
+    base = check_shaft(body_section, material, loads, mount, settings)
+    layout = placed.layout
+    static_T = static_torque_Nm(loads)
+    weight = layout.element_mass_kg * GRAVITY_M_S2
+    driven = driven_load_N + (layout.driven.mass_kg * GRAVITY_M_S2 if layout.driven else 0.0)
+    pull_design = side_load_N(loads.design_torque_Nm, mount.pitch_diameter_m, mount.load_factor)
+    pull_static = side_load_N(static_T, mount.pitch_diameter_m, mount.load_factor)
+    forces_design = point_loads(placed, SideLoads(pull_design, weight, driven))
+    forces_static = point_loads(placed, SideLoads(pull_static, weight, driven))
+    checks: list[StepCheck] = []
+    all_notes = list(placed.notes) + list(notes)
+    for step in steps:
+        section = _section(step, body_section)
+        feature, kt, kts, kf, kfs, step_notes = _features(step, section, material.tensile_Pa)
+        all_notes.extend(n for n in step_notes if n not in all_notes)  # each fact once
+        share = torque_fraction(placed, step.check_from_m, step.check_to_m)
+        m_design = max_moment_Nm(placed, forces_design, step.check_from_m, step.check_to_m)
+        m_static = max_moment_Nm(placed, forces_static, step.check_from_m, step.check_to_m)
+        t_design, t_static = share * loads.design_torque_Nm, share * static_T
+        figures = section_figures(section, material, kf, kfs, t_design, t_static, m_design, m_static, settings)
+        checks.append(StepCheck(step, section, m_design, m_static, t_design, t_static, feature, kt, kts, kf, kfs,
+                                figures, tuple(step_notes)))
+    index = min(range(len(checks)), key=lambda i: (checks[i].min_safety_factor, -checks[i].Kf - checks[i].Kfs, i))
+    gov = checks[index]
+    fig = gov.figures
+    verdict, governing, why = _verdict(fig.static_sf, fig.fatigue_sf, base.twist_deg_per_m,
+                                       base.twist_limit_deg_per_m, gov.where, settings)
+    key = _key(checks, placed, material, static_T, hub_material, settings)
+    masses = [(placed.load_x_m, layout.element_mass_kg)]
+    if layout.driven is not None:
+        masses.append((placed.driven_x_m, layout.driven.mass_kg))
+    stiffness = stiffness_figures(steps, placed, forces_design, masses, E_Pa, material.density_kg_m3,
+                                  layout.bearing_type)
+    if stiffness is not None:
+        all_notes.extend(n for n in stiffness.notes if n not in all_notes)
+    if key is not None:
+        all_notes.extend(n for n in key.notes if n not in all_notes)
+    verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
+                                             stiffness, loads.shaft_speed_rpm)
+    methods = dict(base.methods)
+    methods["steps"] = ("each step at its own moment and torque; shoulders by Peterson's SCF 3rd ed. Charts "
+                        "3.10/3.12 fits; keyseat by Shigley 9th ed. Table 7-1; the weakest step governs")
+    return replace(
+        base,
+        side_load_N=pull_design,
+        bending_moment_Nm=gov.bending_moment_Nm,
+        max_shear_stress_Pa=fig.shear_Pa,
+        bending_stress_Pa=fig.bending_Pa,
+        von_mises_stress_Pa=fig.von_mises_Pa,
+        tresca_stress_Pa=fig.tresca_Pa,
+        marin=fig.marin,
+        endurance_limit_Pa=fig.endurance_Pa,
+        Kt=gov.Kt, Kts=gov.Kts, Kf=gov.Kf, Kfs=gov.Kfs,
+        feature=gov.feature,
+        fatigue_alt_Pa=fig.alt_Pa,
+        fatigue_mean_Pa=fig.mean_Pa,
+        peak_von_mises_Pa=fig.peak_von_mises_Pa,
+        static_safety_factor=fig.static_sf,
+        shear_yield_safety_factor=fig.shear_yield_sf,
+        fatigue_safety_factor=fig.fatigue_sf,
+        verdict=verdict,
+        governing=governing,
+        why=why,
+        methods=methods,
+        steps=tuple(checks),
+        governing_step=index,
+        notes=tuple(all_notes),
+        key=key,
+        stiffness=stiffness,
+        placed=placed,
+        side_loads=tuple(forces_design),
+    )
+
+
+def _key(checks: list[StepCheck], placed: Placed, material: MaterialProps, torque_Nm: float,
+         hub_material: str | None, settings: Settings):
+    """The key of the keyed hub seat at the static-check torque (the largest), or None if not keyed.
+    The key is taken of the shaft's own steel (common practice when the key stock is not known)."""
+    seat = next((c for c in checks if c.step.kind == "seat" and c.step.keyed), None)
+    if seat is None:
+        return None
+    g = seat.step.geometry
+    row = key_for_diameter(g.size_m, g.key_standard)
+    return key_figures(torque_Nm, g, row, placed.layout.hub_length_m, material.yield_Pa, material.yield_Pa,
+                       hub_material, settings.required_sf)
