@@ -217,7 +217,12 @@ def moment_at_Nm(placed: Placed, forces: list[tuple[float, float]], x_m: float) 
         if placed.layout.position == "overhung":
             return abs(force) * max(0.0, min(x_m, b1) - x_load)
         return abs(force) * abs(x_load - b1) if x_m >= b1 else 0.0
-    r1, r2 = reactions_N(placed, forces)
+    return _moment_with_reactions(forces, x_m, b1, b2, reactions_N(placed, forces))
+
+
+def _moment_with_reactions(forces, x_m: float, b1: float, b2: float, reactions: tuple[float, float]) -> float:
+    """|M(x)| with the bearing reactions already known (see moment_at_Nm)."""
+    r1, r2 = reactions
     total = 0.0
     for x, f in forces:
         if x < x_m:
@@ -235,7 +240,11 @@ def max_moment_Nm(placed: Placed, forces: list[tuple[float, float]], x_lo: float
     points = [x_lo, x_hi]
     points += [x for x, _ in forces if x_lo < x < x_hi]
     points += [b for b in placed.bearing_x_m if b is not None and x_lo < b < x_hi]
-    return max(moment_at_Nm(placed, forces, x) for x in points)
+    b1, b2 = placed.bearing_x_m
+    if b2 is None:
+        return max(moment_at_Nm(placed, forces, x) for x in points)
+    reactions = reactions_N(placed, forces)  # once for every point (the same figures moment_at_Nm finds)
+    return max(_moment_with_reactions(forces, x, b1, b2, reactions) for x in points)
 
 
 def torque_fraction(placed: Placed, x_lo: float, x_hi: float) -> float:
