@@ -34,6 +34,7 @@ class ShaftbenchApp(App):
         Binding("f5", "units", "Units", id="app.units", tooltip="Metric / inch display"),
         Binding("f6", "save", "Save", id="app.save", tooltip="Save the job to the job log"),
         Binding("f7", "review", "Log", id="app.review", tooltip="Open the job log"),
+        Binding("f9", "profile", "Profile", id="app.profile", tooltip="Side profile, steps, moment diagram"),
         Binding("f10", "turning", "Turning", id="app.turning", tooltip="Turning sheet: sizes, limits, keyseat", show=False),
         Binding("f11", "fits", "Fits", id="app.fits", tooltip="ISO 286 limits and fits calculator", show=False),
         Binding("ctrl+q", "quit", "Quit", id="app.quit", priority=True),
@@ -109,6 +110,12 @@ class ShaftbenchApp(App):
         from .screens.section import SectionScreen
 
         self.push_screen(SectionScreen(self.inputs()))
+
+    def action_profile(self) -> None:
+        """Draw the shafts' steps and the bending-moment diagram, governing step marked."""
+        from .screens.profile import ProfileScreen
+
+        self.push_screen(ProfileScreen(self.job_screen.result or self.job_screen.panel.result))
 
     def action_substitute(self) -> None:
         """Equal-strength and equal-stiffness sizes in the other profiles."""
