@@ -13,6 +13,7 @@ from textual.worker import get_current_worker
 
 from .. import engine
 from ..messages import EvaluationReady, SheetChanged
+from ..typeahead import MOVE_BINDINGS, TypeAheadMixin
 from ..widgets.choice import Choice
 from ..widgets.job_sheet import JobSheet
 from ..widgets.steady import update_in_place
@@ -21,8 +22,10 @@ from ..widgets.verdict_panel import VerdictPanel
 NARROW_BELOW = 100
 
 
-class JobScreen(Screen):
+class JobScreen(TypeAheadMixin, Screen):
     """Sheet + verdict; recomputes in a worker a moment after each edit."""
+
+    BINDINGS = [*MOVE_BINDINGS]
 
     def __init__(self, first_inputs: dict[str, str] | None = None) -> None:
         super().__init__(id="job")
