@@ -122,6 +122,10 @@ def read_keyseat(geometry: ShaftGeometry) -> KeyseatReading:
     if width > WIDEST_SEAT_PER_D * d * (1 + 1e-9):
         raise KeyseatRefused(f"a keyseat {width * 1e3:.3g} mm wide in a {d * 1e3:.4g} mm shaft is wider than any "
                              f"standard seat ({WIDEST_SEAT_PER_D:g} d)")
+    chord = d / 2.0 - math.sqrt(max(d * d / 4.0 - width * width / 4.0, 0.0))
+    if depth <= chord * (1 + 1e-6):
+        raise KeyseatRefused(f"a keyseat {width * 1e3:.3g} mm wide and {depth * 1e3:.3g} mm deep does not reach below "
+                             f"the round's edge ({chord * 1e3:.2g} mm at its side walls); check the size")
     radius = g.key_radius_m or default_keyseat_radius_m(width, g.key_standard)
     standard = std is not None and abs(width - std[0]) < 1e-7 and abs(depth - std[1]) < 1e-7
     ligament = None
