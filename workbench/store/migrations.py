@@ -28,7 +28,7 @@ def _v2_to_v3(conn: sqlite3.Connection) -> None:
     # Without FTS5/trigram the log still becomes v3 (no table changes are needed for LIKE); the
     # index is built by ensure_text_index the first time a capable SQLite opens the file.
     if text_index_supported():
-        _build_text_index(conn)
+        build_text_index(conn)
 
 
 def _v3_to_v4(conn: sqlite3.Connection) -> None:
@@ -80,7 +80,7 @@ def _v3_to_v4(conn: sqlite3.Connection) -> None:
     for statement in (*schema.SQLITE_V4_INDEXES, *schema.SQLITE_COUNTS, schema.COUNTS_FILL):
         conn.execute(statement)
     if text_index_supported():
-        _build_text_index(conn)
+        build_text_index(conn)
 
 
 STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {
@@ -149,7 +149,7 @@ def _text_index_parts(conn: sqlite3.Connection) -> set[str]:
     return {name for (name,) in rows}
 
 
-def _build_text_index(conn: sqlite3.Connection) -> None:
+def build_text_index(conn: sqlite3.Connection) -> None:
     """(Re)create the index and its triggers and fill it from jobs.search_text (caller's transaction)."""
     for trigger in schema.TEXT_TRIGGERS:
         conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
@@ -180,7 +180,7 @@ def ensure_text_index(conn: sqlite3.Connection) -> bool:
     try:
         parts = _text_index_parts(conn)
         if supported and parts != wanted:
-            _build_text_index(conn)
+            build_text_index(conn)
         elif not supported:
             for trigger in schema.TEXT_TRIGGERS:
                 conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")

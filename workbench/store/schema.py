@@ -53,7 +53,7 @@ TEXT_INDEX = "jobs_text"
 TEXT_TRIGGERS = ("jobs_text_insert", "jobs_text_delete", "jobs_text_update")
 TEXT_INDEX_CREATE = (
     f"CREATE VIRTUAL TABLE {TEXT_INDEX} USING fts5("
-    "search_text, content='jobs', content_rowid='id', tokenize='trigram')"
+    "search_text, content='jobs', content_rowid='id', tokenize='trigram', columnsize=0)"
 )
 TEXT_INDEX_TRIGGERS = (
     f"""

@@ -148,8 +148,12 @@ def job_row(
     updated_at: str | None = None,
     program_version: str | None = None,
     deleted_at: str | None = None,
+    stored_payload: bytes | None = None,
 ) -> tuple[Any, ...]:
     """One job as the values of INSERT_COLUMNS, every field checked (LogError names a bad one).
+
+    ``stored_payload``: the payload already encoded for these inputs and result (bulk paths that
+    store one result many times); otherwise it is encoded here.
 
     Without ``uid`` a new random one is made (a fresh save); the caller passes ``content_uid`` for
     jobs that come without one."""
@@ -180,7 +184,7 @@ def job_row(
         material,
         text["fitted"],
         deleted_at,
-        payload.encode(inputs, result),
+        stored_payload if stored_payload is not None else payload.encode(inputs, result),
         schema.search_text(text["asset"], text["location"], text["note"], material),
     )
 
