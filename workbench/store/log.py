@@ -22,7 +22,7 @@ from typing import Any
 
 from workbench.store import schema
 from workbench.store.compare import compare_results
-from workbench.store.paths import default_log_path
+from workbench.store.paths import default_log_path, log_target
 from workbench.store.records import (
     META_FIELDS,
     VERDICTS,
@@ -78,10 +78,17 @@ class JobLog:
 
     @classmethod
     def open(cls, path: str | os.PathLike[str] | None = None, *, create: bool = True) -> JobLog:
-        """Open (and create or migrate, if needed) the job log at ``path`` or the default path."""
+        """Open (and create or migrate, if needed) the job log at ``path`` or the default log.
+
+        ``path`` (or ``$SHAFTBENCH_LOG``) is a file, or a ``postgresql://`` URL of a shared log."""
+        target = log_target(path) if path is None or isinstance(path, str) else Path(path)
+        if isinstance(target, str):
+            from workbench.store.pg_log import PgJobLog
+
+            return PgJobLog.open_url(target, create=create)
         from workbench.store.sqlite_log import SqliteJobLog
 
-        return SqliteJobLog.open_file(path, create=create)
+        return SqliteJobLog.open_file(target, create=create)
 
     def close(self) -> None:
         """Close the log (safe to call twice)."""
