@@ -98,8 +98,9 @@ def friendly(err: Exception, url: str) -> LogError:
     where = shown_url(url)
     first = _scrub(str(err).strip().splitlines()[0] if str(err).strip() else type(err).__name__, url)
     if isinstance(err, psycopg.OperationalError):
-        return LogError(f"the shared job log {where} cannot be reached ({first}); nothing was saved - "
-                        "try again when it is back")
+        return LogError(f"the shared job log {where} cannot be reached ({first}); nothing was changed "
+                        "(a save in progress was not confirmed: save again when it is back - the same "
+                        "save is never stored twice)")
     return LogError(f"shared job log {where}: {first}")
 
 
