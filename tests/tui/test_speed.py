@@ -41,7 +41,7 @@ async def test_the_first_frame_already_shows_the_demo_verdict(tmp_path):
     async with app.run_test(size=(120, 40)) as pilot:
         await pilot.pause()
         assert app.frames, "no frame was drawn"
-        assert "✓ PASS  candidate square 40mm" in app.frames[0]
+        assert "✓ PASS  candidate square 45mm" in app.frames[0]
         assert "running torque" in app.frames[0]
         await settle(pilot)
         assert "✓ PASS" in plain_text(app.job_screen.query_one("#verdict-banner"))
