@@ -115,3 +115,22 @@ def test_keyed_seat_on_a_square_candidate_gets_the_seats_key(capsys):
     # DIN 6885-1: a 40 mm seat (38-44 mm) takes a 12 x 8 key, t1 = 5.0 mm (shop data, V)
     assert seat["diameter_m"] == pytest.approx(0.040)
     assert k["key_width_m"] == pytest.approx(0.012) and k["depth_m"] == pytest.approx(0.035)
+
+
+from hypothesis import given, settings, strategies as st  # noqa: E402
+
+
+@settings(max_examples=40, deadline=None)
+@given(key=st.sampled_from(["bearing", "journal_class", "seat_class", "key_fit", "bearing_mounting"]),
+       text=st.one_of(st.text(max_size=10), st.sampled_from(["6207", "22210K", "k6", "H7", "zc18", "j9", "h1"])))
+def test_typed_options_never_give_a_traceback(key, text):
+    """Whatever is typed in a turning-sheet option: a result with a sheet, or one JobInputError line."""
+    from workbench.demo import demo_inputs
+    from workbench.job import JobInputError, evaluate_inputs
+
+    try:
+        result = evaluate_inputs({**demo_inputs(), key: text})
+    except JobInputError as err:
+        assert "\n" not in str(err)
+        return
+    assert all(s["turning"] for s in result["shafts"])
