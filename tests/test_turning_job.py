@@ -134,3 +134,18 @@ def test_typed_options_never_give_a_traceback(key, text):
         assert "\n" not in str(err)
         return
     assert all(s["turning"] for s in result["shafts"])
+
+
+def test_inch_shaft_gets_an_ansi_keyseat_and_inch_limits(capsys):
+    # 1-1/4 in shaft: 1/4 in square key, depth h/2 = 1/8 in (ANSI B17.1 via Shigley 9th ed. Table 7-6, V);
+    # keyseat width +0.002/-0 in, depth +0.010 in (ANSI B17.1, from memory); 31.75 k6 = +18/+2 um (30-50)
+    assert main(["check", "--torque", "200 N*m", "--shaft", "round 1-1/4in keyed", "--json"]) == 0
+    shaft = json.loads(capsys.readouterr().out)["shafts"][0]
+    k = shaft["keyseat"]
+    assert k["standard"] == "ANSI B17.1"
+    assert k["width_min_m"] == pytest.approx(0.25 * 0.0254) and k["width_max_m"] == pytest.approx(0.252 * 0.0254)
+    assert k["depth_m"] == pytest.approx(1.125 * 0.0254) and k["depth_tolerance_m"] == pytest.approx(0.010 * 0.0254)
+    assert k["length_m"] is None  # a coupling with no hub length given: not known, not zero
+    journal = next(r for r in shaft["turning"] if r["step"] == "journal")
+    assert journal["max_in"] == pytest.approx(round((31.75 + 0.018) / 25.4, 4))
+    assert journal["min_in"] == pytest.approx(round((31.75 + 0.002) / 25.4, 4))
