@@ -153,7 +153,7 @@ def check_steps(
     gov = checks[index]
     fig = gov.figures
     verdict, governing, why = _verdict(fig.static_sf, fig.fatigue_sf, base.twist_deg_per_m,
-                                       base.twist_limit_deg_per_m, gov.where, settings)
+                                       base.twist_limit_deg_per_m, gov.where, settings, base.buckling_safety_factor)
     key = _key(checks, placed, material, static_T, hub_material, settings)
     masses = [(placed.load_x_m, layout.element_mass_kg)]
     if layout.driven is not None:
