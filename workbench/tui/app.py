@@ -133,7 +133,7 @@ class ShaftbenchApp(App):
         if not choice:
             return
         self.job_screen.sheet.set_candidate(choice["spec"], choice.get("material", ""))
-        self.notify(f"Candidate set: {choice['spec']} {choice.get('material', '')}".strip())
+        self.notify(f"Candidate set: {choice['spec']} {choice.get('material', '')}".strip(), markup=False)
 
     def action_units(self) -> None:
         """Toggle the display between metric and inch (inputs accept either)."""
@@ -183,18 +183,19 @@ class ShaftbenchApp(App):
             with JobLog.open(self.log_path, create=False) as log:
                 reopened = log.reopen(int(job_id))
         except (LogError, ValueError, TypeError) as err:
-            self.notify(f"Job {job_id} reopened; could not compare with the stored result: {err}", severity="warning")
+            self.notify(f"Job {job_id} reopened; could not compare with the stored result: {err}", severity="warning",
+                        markup=False)
             return
         record = reopened.record
         self.meta = {"asset": record.asset, "location": record.location, "by": record.by, "note": record.note}
         if reopened.error:
             self.notify(f"Job {job_id} reopened, but today's program refuses it: {reopened.error}",
-                        severity="error", timeout=20)
+                        severity="error", timeout=20, markup=False)
         elif reopened.differences:
             lines = "\n".join(str(d) for d in reopened.differences[:6])
             more = f"\n… and {len(reopened.differences) - 6} more" if len(reopened.differences) > 6 else ""
             self.notify(f"Job {job_id} reopened — today's result DIFFERS from the stored one:\n{lines}{more}",
-                        severity="warning", timeout=30)
+                        severity="warning", timeout=30, markup=False)
         else:
             self.notify(f"Job {job_id} reopened — today's result matches the stored one.")
 
