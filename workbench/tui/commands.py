@@ -19,6 +19,8 @@ ACTIONS: tuple[tuple[str, str, str, bool], ...] = (
     ("Toggle metric / inch", "units", "Display units (inputs accept either) (F5)", False),
     ("Save job to log", "save", "Asset, location, by, note (F6)", True),
     ("Open job log", "review", "Reopen or duplicate a saved job (F7)", False),
+    ("Turning sheet", "turning", "Sizes and limits to turn, keyseat to cut (F10)", True),
+    ("Fits calculator", "fits", "ISO 286 limits of a class or fit, measured sizes (F11)", False),
     ("New job (clear the sheet)", "new_job", "An empty sheet; asks first if the job is not saved (Ctrl+N)",
      False),
     ("Undo the last change", "screen.undo", "Put back the sheet before the last change (Ctrl+Z)", False),

@@ -9,13 +9,14 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal
 from textual.screen import Screen
-from textual.widgets import Footer, Static
+from textual.widgets import Footer, Input, Static
 from textual.worker import get_current_worker
 
 from .. import engine
 from ..messages import EvaluationReady, SheetChanged
 from ..typeahead import MOVE_BINDINGS, TypeAheadMixin
 from ..undo import History
+from ..widgets.choice import Choice
 from ..widgets.job_sheet import JobSheet
 from ..widgets.steady import update_in_place
 from ..widgets.verdict_panel import VerdictPanel
@@ -114,7 +115,8 @@ class JobScreen(TypeAheadMixin, Screen):
     def show_job_now(self, inputs: dict[str, str]) -> None:
         """Put ``inputs`` on the sheet and show their evaluation at once (no debounce, no worker):
         used before the first paint, so that the first frame already holds the verdict."""
-        self.sheet.load_inputs(inputs)
+        with self.prevent(Input.Changed, Choice.Changed):  # evaluated here, and the spec lines set
+            self.sheet.load_inputs(inputs)
         self.sheet.cancel_pending()
         self.generation += 1
         self.last_inputs = self.sheet.inputs()
