@@ -332,7 +332,6 @@ def _finite(value: float) -> float | None:
 def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -> dict:
     g = case.geometry
     section = check.section
-    step_section = check.steps[check.governing_step].section if check.steps else section
     dims = {"size_m": g.size_m}
     if g.second_m:
         dims["second_m"] = g.second_m
@@ -353,8 +352,8 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "yield_Pa": case.material.yield_Pa,
         "area_m2": section.area_m2,
         "torsion_constant_m4": section.torsion_constant_m4,
-        "shear_per_torque_Pa_per_Nm": step_section.shear_per_torque_Pa_per_Nm,
-        "section_modulus_m3": step_section.section_modulus_m3,
+        "shear_per_torque_Pa_per_Nm": section.shear_per_torque_Pa_per_Nm,
+        "section_modulus_m3": section.section_modulus_m3,
         "max_shear_stress_Pa": check.max_shear_stress_Pa,
         "bending_moment_Nm": check.bending_moment_Nm,
         "bending_stress_Pa": check.bending_stress_Pa,

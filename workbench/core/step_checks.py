@@ -128,7 +128,9 @@ def check_steps(
 ) -> ShaftCheck:
     """Every step checked; the ShaftCheck carries the governing step's figures and all the steps.
 
-    Area, torsion constant, mass and twist stay those of the bar as typed (``body_section``); the
+    Area, torsion constant, mass, twist and the pure-torsion peak shear stay those of the bar as typed
+    (``body_section``); the stresses of the check (bending, von Mises, Tresca) and every factor are the
+    governing step's; the
     static-check torque is :func:`workbench.core.checks.static_torque_Nm`. The side load of the
     driving element is 2 T K / D at each torque level; weights (m g) and the driven element's load
     are the same at both.
@@ -186,7 +188,6 @@ def check_steps(
         base,
         side_load_N=pull_design,
         bending_moment_Nm=gov.bending_moment_Nm,
-        max_shear_stress_Pa=fig.shear_Pa,
         bending_stress_Pa=fig.bending_Pa,
         von_mises_stress_Pa=fig.von_mises_Pa,
         tresca_stress_Pa=fig.tresca_Pa,

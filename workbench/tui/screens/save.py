@@ -8,6 +8,7 @@ from textual import work
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
+from textual.content import Content
 from textual.screen import ModalScreen
 from textual.widgets import Input, Label, Static
 
@@ -91,7 +92,8 @@ class SaveScreen(TypeAheadMixin, ModalScreen[dict[str, Any] | None]):
         self.app.call_from_thread(self._done, job_id, meta)
 
     def _failed(self, message: str) -> None:
-        self.query_one("#save-status", Static).update(f"✗ not saved: {message}")
+        # the message may quote the log's path: shown as written, never read as markup
+        self.query_one("#save-status", Static).update(Content(f"✗ not saved: {message}"))
 
     def _done(self, job_id: Any, meta: dict[str, str]) -> None:
         self.app.notify(f"Saved to the job log as job {job_id}.")

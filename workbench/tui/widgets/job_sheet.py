@@ -108,7 +108,24 @@ class JobSheet(VerticalScroll, can_focus=False):
                 out[prefix] = spec
         return out
 
+    def snapshot(self) -> dict[str, str]:
+        """What every field holds, pick-lists included, as shown (for undo and a new job)."""
+        return {key: row.control.value for key, row in self._rows.items()}
+
     # -- writing -------------------------------------------------------------------------------
+    def restore(self, values: dict[str, str]) -> None:
+        """Put back a :meth:`snapshot` (fields it does not name are left as they are)."""
+        self._loading = True
+        try:
+            for key, value in values.items():
+                if key in self._rows:
+                    self._rows[key].set_value(value)
+            for prefix in SHAFT_PREFIXES:
+                self._apply_profile(prefix)
+        finally:
+            self._loading = False
+        self._schedule()
+
     def load_inputs(self, inputs: dict[str, str]) -> None:
         """Fill the sheet from a contract dict (demo job, a reopened log entry); clears the rest."""
         self._loading = True
@@ -165,7 +182,6 @@ class JobSheet(VerticalScroll, can_focus=False):
         second = self.row(f"{prefix}_second")
         second.display = profile in SECOND_LABEL
         second.set_label(SECOND_LABEL.get(profile, "Bore"))
-        self.row(f"{prefix}_keyseat").display = profile in ("round", "tube")
         size_row = self.row(f"{prefix}_size")
         size_row.set_hint(SIZE_HINT.get(profile, ""))
         size_row.set_placeholder(SIZE_PLACEHOLDER.get(profile, "e.g. 40"))
@@ -184,7 +200,7 @@ class JobSheet(VerticalScroll, can_focus=False):
     def _shown(self, key: str) -> bool:
         """False for a field that only applies to another choice (e.g. From bearing, overhung)."""
         rule = SHOWN_WHEN.get(key)
-        return rule is None or self.value(rule[0]) == rule[1]
+        return rule is None or self.value(rule[0]) in rule[1]
 
     def _apply_shown(self) -> None:
         for key in SHOWN_WHEN:
