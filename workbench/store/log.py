@@ -22,8 +22,9 @@ from datetime import date, datetime, timedelta, timezone
 from pathlib import Path
 from typing import Any
 
-from workbench.store import migrations, schema
+from workbench.store import migrations, schema, sqlite_files
 from workbench.store.paths import create_private_file, default_log_path, make_private_dirs
+from workbench.store.text_search import job_search_text
 
 __all__ = [
     "Difference",
@@ -37,8 +38,11 @@ __all__ = [
 
 VERDICTS = ("pass", "marginal", "fail")
 BUSY_TIMEOUT_S = 10.0
-SQLITE_MAGIC = b"SQLite format 3\x00"
 META_FIELDS = ("asset", "location", "by", "note", "fitted")
+OUTCOME_FIELDS = ("fitted_on", "outcome", "outcome_date")
+OUTCOMES = ("still-running", "failed", "removed")
+"""How a fitted shaft ended: still running, failed again (on a date), removed."""
+EDITABLE_FIELDS = META_FIELDS + OUTCOME_FIELDS
 
 
 class LogError(Exception):
@@ -70,6 +74,12 @@ class JobRecord:
     """UTC ISO time the job was moved to the bin, or None."""
     inputs: dict[str, str] = field(repr=False)
     result: dict[str, Any] = field(repr=False)
+    fitted_on: str = ""
+    """ISO date (YYYY-MM-DD) the fitted shaft went in, or empty."""
+    outcome: str = ""
+    """How it ended: empty (not recorded), ``still-running``, ``failed`` or ``removed``."""
+    outcome_date: str = ""
+    """ISO date of the outcome (when it failed, was removed or was last seen running), or empty."""
 
     @property
     def deleted(self) -> bool:
@@ -93,6 +103,9 @@ class JobRecord:
             "deleted_at": self.deleted_at,
             "inputs": self.inputs,
             "result": self.result,
+            "fitted_on": self.fitted_on,
+            "outcome": self.outcome,
+            "outcome_date": self.outcome_date,
         }
 
 
@@ -208,13 +221,33 @@ def _now() -> str:
 
 def _iso_utc(value: str, what: str) -> str:
     """Normalise an ISO time string to the stored form (UTC, microseconds)."""
+    shown = _cut(repr(value))
     try:
         moment = datetime.fromisoformat(str(value).replace("Z", "+00:00"))
     except ValueError:
-        raise LogError(f"{what}: expected an ISO date-time like 2025-03-01T08:30:00Z, got {value!r}") from None
+        raise LogError(f"{what}: expected an ISO date-time like 2025-03-01T08:30:00Z, got {shown}") from None
     if moment.tzinfo is None:
         moment = moment.replace(tzinfo=timezone.utc)
-    return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+    try:
+        return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+    except OverflowError:  # e.g. 9999-12-31T23:00-05:00 is in the year 10000 in UTC
+        raise LogError(f"{what}: {shown} is outside the years 1 to 9999 in UTC") from None
+
+
+def _cut(text: str, limit: int = 60) -> str:
+    """A value for a one-line message: at most ``limit`` characters."""
+    return text if len(text) <= limit else text[: limit - 1] + "…"
+
+
+def _iso_date(value: Any, what: str) -> str:
+    """An ISO calendar date (YYYY-MM-DD) or empty; a LogError naming ``what`` otherwise."""
+    text = _text(value, what).strip()
+    if not text:
+        return ""
+    try:
+        return date.fromisoformat(text).isoformat()
+    except ValueError:
+        raise LogError(f"{what}: expected a date like 2025-03-01, got {_cut(repr(text))}") from None
 
 
 def _bound(value: date | datetime | str | None, what: str, *, end: bool) -> str | None:
@@ -226,14 +259,34 @@ def _bound(value: date | datetime | str | None, what: str, *, end: bool) -> str 
         try:
             value = date.fromisoformat(text) if len(text) == 10 else datetime.fromisoformat(text.replace("Z", "+00:00"))
         except ValueError:
-            raise LogError(f"{what}: expected a date like 2025-03-01 (UTC), got {text!r}") from None
+            raise LogError(f"{what}: expected a date like 2025-03-01 (UTC), got {_cut(repr(text))}") from None
+    # At the calendar's edges a bound can fall past year 9999 or before year 1 in UTC, where no
+    # stored time can be: such a bound lets every job through on its side, or none.
     if isinstance(value, datetime):
         moment = value if value.tzinfo else value.replace(tzinfo=timezone.utc)
-        return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+        try:
+            return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+        except OverflowError:
+            offset = moment.utcoffset() or timedelta(0)
+            return _beyond(past_the_end=offset < timedelta(0), end=end)
     if isinstance(value, date):
-        day = value + timedelta(days=1) if end else value
+        try:
+            day = value + timedelta(days=1) if end else value
+        except OverflowError:
+            return _beyond(past_the_end=True, end=end)
         return datetime(day.year, day.month, day.day, tzinfo=timezone.utc).isoformat(timespec="microseconds")
     raise LogError(f"{what}: expected a date, got {value!r}")
+
+
+_MATCH_NONE_SINCE = "A"  # every stored time (digits first) sorts below it: created_at >= 'A' is never true
+_MATCH_NONE_UNTIL = "0"  # every stored time sorts above it: created_at < '0' is never true
+
+
+def _beyond(*, past_the_end: bool, end: bool) -> str | None:
+    """The stored-form bound for a time outside the years 1 to 9999 in UTC (None: no bound)."""
+    if end:
+        return None if past_the_end else _MATCH_NONE_UNTIL
+    return _MATCH_NONE_SINCE if past_the_end else None
 
 
 def _text(value: Any, what: str) -> str:
@@ -242,6 +295,23 @@ def _text(value: Any, what: str) -> str:
     if not isinstance(value, str):
         raise LogError(f"{what}: expected text, got {type(value).__name__}")
     return value
+
+
+def _outcome_fields(meta: Mapping[str, Any]) -> dict[str, str]:
+    """``fitted_on``, ``outcome`` and ``outcome_date`` checked: dates as YYYY-MM-DD, the outcome one
+    of OUTCOMES (``failed`` needs its date), the outcome not before the fitting."""
+    fitted_on = _iso_date(meta.get("fitted_on"), "fitted_on")
+    outcome = _text(meta.get("outcome"), "outcome").strip().casefold()
+    outcome_date = _iso_date(meta.get("outcome_date"), "outcome_date")
+    if outcome and outcome not in OUTCOMES:
+        raise LogError(f"outcome: expected one of {', '.join(OUTCOMES)}, got {_cut(repr(outcome))}")
+    if outcome == "failed" and not outcome_date:
+        raise LogError("outcome: failed needs the date it failed (e.g. failed 2025-03-01)")
+    if outcome_date and not outcome:
+        raise LogError("outcome_date: give the outcome too (still-running, failed or removed)")
+    if fitted_on and outcome_date and outcome_date < fitted_on:
+        raise LogError(f"outcome_date: {outcome_date} is before the shaft was fitted ({fitted_on})")
+    return {"fitted_on": fitted_on, "outcome": outcome, "outcome_date": outcome_date}
 
 
 def _inputs_json(inputs: Any) -> str:
@@ -318,34 +388,33 @@ def _like_pattern(word: str) -> str:
     return f"%{escaped}%"
 
 
-def _check_header(path: Path) -> None:
-    """Refuse a file that is not an SQLite database or is shorter than its header says."""
+def _check_file(path: Path) -> None:
+    """Refuse a file that is not an SQLite database, or that is shorter than its header says and
+    that SQLite cannot recover from the WAL beside it (see workbench/store/sqlite_files.py)."""
     try:
-        size = path.stat().st_size
-        if size == 0:
-            return
-        with open(path, "rb") as handle:
-            head = handle.read(100)
-    except PermissionError:
-        raise LogError(f"cannot read the job log {path}: permission denied") from None
-    except IsADirectoryError:
-        raise LogError(f"{path} is a folder, not a job log file") from None
-    if len(head) < 100 or not head.startswith(SQLITE_MAGIC):
-        raise LogError(f"{path} is not a Shaftbench job log (not an SQLite file); it was left unchanged")
-    page_size = int.from_bytes(head[16:18], "big")
-    page_size = 65536 if page_size == 1 else page_size
-    page_count = int.from_bytes(head[28:32], "big")
-    header_size_valid = head[24:28] == head[92:96]
-    if size % page_size or (header_size_valid and page_count and size < page_size * page_count):
-        raise LogError(
-            f"the job log {path} is damaged (cut short: {size} of {page_size * page_count} bytes); "
-            "it was left unchanged - restore it from a backup"
-        )
+        header = sqlite_files.read_header(path)
+    except sqlite_files.FileProblem as problem:
+        if str(problem) == "permission denied":
+            raise LogError(f"cannot read the job log {path}: permission denied") from None
+        if str(problem) == "folder":
+            raise LogError(f"{path} is a folder, not a job log file") from None
+        raise LogError(f"{path} is not a Shaftbench job log (not an SQLite file); it was left unchanged") from None
+    if header is None or not header.short:
+        return
+    if sqlite_files.has_wal_frames(path) and sqlite_files.recoverable(path):
+        return  # a checkpoint was cut short; SQLite replays the WAL on open and finishes it on close
+    expected = header.page_size * header.page_count
+    raise LogError(
+        f"the job log {path} is damaged (cut short: {header.size} of {expected} bytes); "
+        "it was left unchanged - restore it from a backup"
+    )
 
 
 def _friendly(err: sqlite3.Error, path: Path) -> LogError:
     text = str(err)
     low = text.lower()
+    if sqlite_files.is_full_disk_error(err, path.parent):
+        return LogError(f"the disk holding the job log {path} is full; nothing was saved - free some space")
     if "locked" in low or "busy" in low:
         return LogError(f"the job log {path} is busy (another program holds it); try again")
     if "readonly" in low or "read-only" in low:
@@ -354,8 +423,6 @@ def _friendly(err: sqlite3.Error, path: Path) -> LogError:
         return LogError(f"cannot open the job log {path} (is the folder writable?)")
     if "not a database" in low or "malformed" in low or "corrupt" in low:
         return LogError(f"the job log {path} is damaged ({text}); it was left unchanged")
-    if "disk" in low and "full" in low:
-        return LogError(f"the disk holding the job log {path} is full; nothing was saved")
     return LogError(f"job log {path}: {text}")
 
 
@@ -377,18 +444,29 @@ class JobLog:
         """True if text filters use the trigram index (schema v3 with FTS5); False: LIKE over every row."""
         self._match_count_cache: tuple[Any, int] | None = None
         self._count_cache: tuple[Any, int] | None = None
+        self.read_only = False
+        """True if the log was opened read-only (this process may not write it)."""
+        self._columns: tuple[str, ...] = schema.JOB_COLUMNS
+        self.skipped: list[str] = []
+        """One line for each stored job that could not be read and was left out of a listing or export."""
 
     # -- opening and closing -------------------------------------------------------------
 
     @classmethod
     def open(cls, path: str | os.PathLike[str] | None = None, *, create: bool = True) -> JobLog:
-        """Open (and create or migrate, if needed) the job log at ``path`` or the default path."""
+        """Open (and create or migrate, if needed) the job log at ``path`` or the default path.
+
+        A log this process may not write (a read-only file, folder or mount) is opened read-only:
+        it can be listed, shown and exported; a change to it is refused with a message.
+        """
+        if path is not None and not str(path).strip():
+            raise LogError("the job log name is empty: name a file, or leave it out for the default log")
         path = Path(path).expanduser() if path else default_log_path()
         created = False
+        read_only = False
         if path.exists():
-            _check_header(path)
-            if not os.access(path, os.R_OK | os.W_OK) or not os.access(path.parent, os.W_OK | os.X_OK):
-                raise LogError(f"the job log {path} is read-only; use --log to choose a writable file")
+            _check_file(path)
+            read_only = not sqlite_files.writable(path)
         elif not create:
             raise LogError(f"there is no job log at {path}")
         else:
@@ -398,27 +476,40 @@ class JobLog:
             except PermissionError:
                 raise LogError(f"cannot create the job log {path}: the folder is read-only") from None
             except OSError as err:
+                if sqlite_files.is_full_disk_error(err, path.parent):
+                    raise LogError(f"cannot create the job log {path}: the disk holding it is full") from None
                 raise LogError(f"cannot create the job log {path}: {err.strerror or err}") from None
+        side_files = sqlite_files.side_files_exist(path)
+        conn: sqlite3.Connection | None = None
         try:
-            conn = sqlite3.connect(
-                str(path), timeout=BUSY_TIMEOUT_S, isolation_level=None, check_same_thread=True
-            )
-        except sqlite3.Error as err:
-            raise _friendly(err, path) from None
-        try:
-            text_index = cls._prepare(conn, path)
+            if read_only:
+                conn = sqlite_files.connect_read_only(path, BUSY_TIMEOUT_S)
+                columns, text_index = cls._prepare_read_only(conn, path)
+            else:
+                conn = sqlite3.connect(
+                    str(path), timeout=BUSY_TIMEOUT_S, isolation_level=None, check_same_thread=True
+                )
+                text_index = cls._prepare(conn, path)
+                columns = schema.JOB_COLUMNS
         except BaseException as err:
-            conn.close()
+            if conn is not None:
+                conn.close()
+            sqlite_files.tidy_empty_side_files(path, side_files)
             if created and path.exists() and path.stat().st_size == 0:
                 path.unlink()
             if isinstance(err, sqlite3.Error):
                 raise _friendly(err, path) from None
             raise
-        return cls(conn, path, text_index=text_index)
+        log = cls(conn, path, text_index=text_index)
+        log.read_only = read_only
+        log._columns = columns
+        return log
 
     @staticmethod
-    def _prepare(conn: sqlite3.Connection, path: Path) -> bool:
-        # Read-only probes first: nothing is written until the file is known to be ours.
+    def _identify(conn: sqlite3.Connection, path: Path) -> int:
+        """The file's schema version after read-only probes; refuses a file that is not ours or is
+        from a newer version. A file of ours whose version was lost (0 with our tables) gets the
+        version its tables show."""
         version = migrations.user_version(conn)
         app_id = int(conn.execute("PRAGMA application_id").fetchone()[0])
         has_tables = conn.execute("SELECT count(*) FROM sqlite_master").fetchone()[0] > 0
@@ -429,6 +520,17 @@ class JobLog:
                 f"the job log {path} was written by a newer Shaftbench (log format v{version}, this "
                 f"version reads up to v{schema.LATEST_VERSION}); upgrade Shaftbench - the file was left unchanged"
             )
+        if version == 0 and has_tables:
+            found = migrations.version_from_tables(conn)
+            if found is None:
+                raise LogError(f"the job log {path} has tables but no job table of ours; it was left unchanged")
+            return -found  # negative: the version must be written back before migrating
+        return version
+
+    @staticmethod
+    def _prepare(conn: sqlite3.Connection, path: Path) -> bool:
+        # Read-only probes first: nothing is written until the file is known to be ours.
+        version = JobLog._identify(conn, path)
         conn.execute(f"PRAGMA busy_timeout = {int(BUSY_TIMEOUT_S * 1000)}")
         deadline = time.monotonic() + BUSY_TIMEOUT_S
         while True:  # switching to WAL needs a moment alone with the file
@@ -442,10 +544,33 @@ class JobLog:
         if str(mode).lower() != "wal":
             raise LogError(f"the job log {path} cannot use write-ahead logging (journal mode {mode})")
         conn.execute("PRAGMA synchronous = FULL")
+        if version < 0:  # ours, with its version number lost: write back what the tables show
+            version = -version
+            conn.execute(f"PRAGMA user_version = {version}")
         if 0 < version < schema.LATEST_VERSION:
             JobLog._backup_before_migrating(conn, path, version)
         migrations.migrate(conn)
         return migrations.ensure_text_index(conn)
+
+    @staticmethod
+    def _prepare_read_only(conn: sqlite3.Connection, path: Path) -> tuple[tuple[str, ...], bool]:
+        """Columns to read (missing ones of an older version read as empty) and whether the text
+        index can be used, for a log opened read-only (nothing is migrated or written)."""
+        version = abs(JobLog._identify(conn, path))
+        if version == 0:
+            raise LogError(f"the job log {path} is empty and read-only; use --log to choose a writable file")
+        present = {row[1] for row in conn.execute("PRAGMA table_info(jobs)")}
+        columns = tuple(
+            name if name in present else f"'' AS {name}" if name != "deleted_at" else "NULL AS deleted_at"
+            for name in schema.JOB_COLUMNS
+        )
+        parts = {row[0] for row in conn.execute("SELECT name FROM sqlite_master")}
+        text_index = (
+            migrations.text_index_supported()
+            and {schema.TEXT_INDEX, *schema.TEXT_TRIGGERS} <= parts
+            and "search_text" in present
+        )
+        return columns, bool(text_index)
 
     @staticmethod
     def _backup_before_migrating(conn: sqlite3.Connection, path: Path, version: int) -> None:
@@ -482,6 +607,8 @@ class JobLog:
     def _write(self) -> Iterator[sqlite3.Connection]:
         """One write transaction: all of it is saved (durably) or none of it."""
         conn = self.conn
+        if self.read_only:
+            raise LogError(f"the job log {self.path} is read-only; use --log to choose a writable file")
         try:
             conn.execute("BEGIN IMMEDIATE")
         except sqlite3.Error as err:
@@ -514,10 +641,15 @@ class JobLog:
         by: str = "",
         note: str = "",
         fitted: str = "",
+        fitted_on: str = "",
+        outcome: str = "",
+        outcome_date: str = "",
     ) -> int:
         """Store one job durably; returns its id. ``inputs`` are kept exactly as typed."""
         row = self._row(
-            inputs, result, dict(asset=asset, location=location, by=by, note=note, fitted=fitted)
+            inputs, result,
+            dict(asset=asset, location=location, by=by, note=note, fitted=fitted,
+                 fitted_on=fitted_on, outcome=outcome, outcome_date=outcome_date),
         )
         with self._write() as conn:
             cursor = conn.execute(_INSERT, row)
@@ -536,6 +668,7 @@ class JobLog:
     ) -> tuple[Any, ...]:
         inputs_json, result_json = _inputs_json(inputs), _result_json(result)
         text = {name: _text(meta.get(name), name) for name in META_FIELDS}
+        ending = _outcome_fields(meta)
         if program_version is None:
             program = result.get("program")
             program_version = program.get("version") if isinstance(program, Mapping) else None
@@ -560,28 +693,82 @@ class JobLog:
             deleted_at,
             inputs_json,
             result_json,
-            schema.search_text(text["asset"], text["location"], text["note"], material),
+            job_search_text({**text, **ending, "material": material}, inputs, result),
+            ending["fitted_on"],
+            ending["outcome"],
+            ending["outcome_date"],
         )
 
     def update(self, job_id: int, **changes: str) -> JobRecord:
-        """Change the notes of a job (any of asset, location, by, note, fitted); returns it."""
-        unknown = set(changes) - set(META_FIELDS)
+        """Change what is recorded around a job - asset, location, by, note, fitted, fitted_on,
+        outcome, outcome_date - and return it. Each field that changes is kept in the job's history
+        (``changes``) with the time of the change; the job's ``updated_at`` is that time."""
+        unknown = set(changes) - set(EDITABLE_FIELDS)
         if unknown:
-            raise LogError(f"cannot change {', '.join(sorted(unknown))}: only {', '.join(META_FIELDS)}")
+            raise LogError(f"cannot change {', '.join(sorted(unknown))}: only {', '.join(EDITABLE_FIELDS)}")
         current = self.get(job_id)
-        values = {name: getattr(current, name) for name in META_FIELDS}
+        values = {name: getattr(current, name) for name in EDITABLE_FIELDS}
         values.update({name: _text(value, name) for name, value in changes.items()})
+        values.update(_outcome_fields(values))
+        changed = [name for name in EDITABLE_FIELDS if values[name] != getattr(current, name)]
+        if not changed:
+            return current
+        now = _now()
+        search = job_search_text({**values, "material": current.material}, current.inputs, current.result)
         with self._write() as conn:
             conn.execute(
-                "UPDATE jobs SET asset = ?, location = ?, by = ?, note = ?, fitted = ?, "
-                "search_text = ?, updated_at = ? WHERE id = ?",
-                (
-                    values["asset"], values["location"], values["by"], values["note"], values["fitted"],
-                    schema.search_text(values["asset"], values["location"], values["note"], current.material),
-                    _now(), job_id,
-                ),
+                "UPDATE jobs SET asset = ?, location = ?, by = ?, note = ?, fitted = ?, fitted_on = ?, "
+                "outcome = ?, outcome_date = ?, search_text = ?, updated_at = ? WHERE id = ?",
+                (*(values[name] for name in EDITABLE_FIELDS), search, now, job_id),
+            )
+            conn.executemany(
+                "INSERT INTO job_changes (job_id, changed_at, field, old_value, new_value) VALUES (?, ?, ?, ?, ?)",
+                ((job_id, now, name, getattr(current, name), values[name]) for name in changed),
             )
         return self.get(job_id)
+
+    def replace_result(self, job_id: int, inputs: Mapping[str, str], result: Mapping[str, Any],
+                       **changes: str) -> JobRecord:
+        """Store new inputs and result for an existing job (a job reopened, corrected and saved
+        again as the same job), with any of the ``update`` fields; the change is kept in the
+        job's history (field ``result``: the verdict before and after)."""
+        unknown = set(changes) - set(EDITABLE_FIELDS)
+        if unknown:
+            raise LogError(f"cannot change {', '.join(sorted(unknown))}: only {', '.join(EDITABLE_FIELDS)}")
+        current = self.get(job_id)
+        values = {name: getattr(current, name) for name in EDITABLE_FIELDS}
+        values.update({name: _text(value, name) for name, value in changes.items()})
+        row = self._row(inputs, result, values, created_at=current.created_at, updated_at=_now(),
+                        program_version=None, deleted_at=current.deleted_at)
+        (_, now, version, asset, location, by, note, verdict, material, fitted, _, inputs_json,
+         result_json, search, fitted_on, outcome, outcome_date) = row
+        with self._write() as conn:
+            conn.execute(
+                "UPDATE jobs SET updated_at = ?, program_version = ?, asset = ?, location = ?, by = ?, "
+                "note = ?, verdict = ?, material = ?, fitted = ?, inputs_json = ?, result_json = ?, "
+                "search_text = ?, fitted_on = ?, outcome = ?, outcome_date = ? WHERE id = ?",
+                (now, version, asset, location, by, note, verdict, material, fitted, inputs_json,
+                 result_json, search, fitted_on, outcome, outcome_date, job_id),
+            )
+            history = [("result", f"{current.verdict or '-'} ({current.program_version})",
+                        f"{verdict or '-'} ({version})")]
+            history += [(name, getattr(current, name), values[name]) for name in EDITABLE_FIELDS
+                        if values[name] != getattr(current, name)]
+            conn.executemany(
+                "INSERT INTO job_changes (job_id, changed_at, field, old_value, new_value) VALUES (?, ?, ?, ?, ?)",
+                ((job_id, now, name, old, new) for name, old, new in history),
+            )
+        return self.get(job_id)
+
+    def changes(self, job_id: int) -> list[dict[str, str]]:
+        """The job's history after its save, oldest first: ``changed_at``, ``field``, ``old``, ``new``."""
+        if "job_changes" not in {r[0] for r in self._read("SELECT name FROM sqlite_master")}:
+            return []  # an older log opened read-only has no history table
+        rows = self._read(
+            "SELECT changed_at, field, old_value, new_value FROM job_changes WHERE job_id = ? ORDER BY id",
+            (int(job_id),),
+        )
+        return [dict(changed_at=c, field=f, old=o, new=n) for c, f, o, n in rows]
 
     def delete(self, job_id: int) -> None:
         """Move a job to the bin (soft delete; ``restore`` brings it back, ``purge`` removes it)."""
@@ -617,6 +804,8 @@ class JobLog:
         (same creation time, inputs and result) is skipped, so importing a file twice adds nothing.
         A bad row stops the import with a message naming the row, and nothing is added.
         """
+        from workbench.store.exchange import loads_guarded, strict_json
+
         prepared: list[tuple[Any, ...]] = []
         for number, item in enumerate(rows, start=1):
             try:
@@ -624,11 +813,12 @@ class JobLog:
                     raise LogError("expected an object")
                 inputs, result = item.get("inputs"), item.get("result")
                 if isinstance(inputs, str):
-                    inputs = json.loads(inputs)
+                    inputs = loads_guarded(inputs, "inputs")
                 if isinstance(result, str):
-                    result = json.loads(result)
+                    result = loads_guarded(result, "result")
                 if not isinstance(result, Mapping):
                     raise LogError("result: expected an object")
+                result = strict_json(result)  # NaN and infinities are stored as null: strict JSON out
                 created = _iso_utc(item["created_at"], "created_at") if item.get("created_at") else None
                 updated = _iso_utc(item["updated_at"], "updated_at") if item.get("updated_at") else None
                 deleted = _iso_utc(item["deleted_at"], "deleted_at") if item.get("deleted_at") else None
@@ -640,12 +830,13 @@ class JobLog:
                         program_version=version if isinstance(version, str) and version else None,
                     )
                 )
-            except (LogError, ValueError) as err:
-                raise LogError(f"job {number} of the import: {err}") from None
+            except (LogError, ValueError, RecursionError) as err:
+                message = "nested too deeply to read" if isinstance(err, RecursionError) else str(err)
+                raise LogError(f"job {number} of the import: {message}") from None
         added = 0
         with self._write() as conn:
             for row in prepared:
-                created, inputs_json, result_json = row[0], row[11], row[12]
+                created, inputs_json, result_json = row[0], row[11], row[12]  # see _row
                 seen = conn.execute(
                     "SELECT 1 FROM jobs WHERE created_at = ? AND inputs_json = ? AND result_json = ?",
                     (created, inputs_json, result_json),
@@ -659,10 +850,25 @@ class JobLog:
 
     def get(self, job_id: int) -> JobRecord:
         """The job with this id (also when it is in the bin)."""
-        rows = self._read(f"SELECT {_COLUMNS} FROM jobs WHERE id = ?", (int(job_id),))
+        rows = self._read(f"SELECT {self._select} FROM jobs WHERE id = ?", (int(job_id),))
         if not rows:
             raise LogError(f"there is no job {job_id} in the log")
-        return _record(rows[0])
+        try:
+            return _record(rows[0])
+        except DamagedRow as damage:
+            raise LogError(f"{damage}; the other jobs are not affected") from None
+
+    @property
+    def _select(self) -> str:
+        return ", ".join(self._columns)
+
+    def _records(self, rows: Iterable[tuple[Any, ...]]) -> Iterator[JobRecord]:
+        """The rows that can be read as records; each one that cannot is noted in ``skipped``."""
+        for row in rows:
+            try:
+                yield _record(row)
+            except DamagedRow as damage:
+                self.skipped.append(str(damage))
 
     def _filters(
         self, verdict: str | Iterable[str] | None, since: Any, until: Any, deleted: bool | None
@@ -792,10 +998,10 @@ class JobLog:
         if not ids:
             return []
         rows = self._read(
-            f"SELECT {_COLUMNS} FROM jobs WHERE id IN ({', '.join('?' * len(ids))})", ids
+            f"SELECT {self._select} FROM jobs WHERE id IN ({', '.join('?' * len(ids))})", ids
         )
-        by_id = {row[0]: row for row in rows}
-        return [_record(by_id[i]) for i in ids if i in by_id]
+        by_id = {record.id: record for record in self._records(rows)}
+        return [by_id[i] for i in ids if i in by_id]
 
     def count(
         self,
@@ -855,15 +1061,20 @@ class JobLog:
         return int(self._read(f"SELECT count(*) FROM {source}{where}", params)[0][0])
 
     def iter_export_rows(self) -> Iterator[dict[str, Any]]:
-        """Every job, bin included, oldest id first, as JSON-ready dicts (streamed)."""
-        cursor = self.conn.execute(f"SELECT {_COLUMNS} FROM jobs ORDER BY id")
+        """Every job, bin included, oldest id first, as JSON-ready dicts (streamed).
+
+        A job that cannot be read is left out and noted in ``skipped``."""
+        try:
+            cursor = self.conn.execute(f"SELECT {self._select} FROM jobs ORDER BY id")
+        except sqlite3.Error as err:
+            raise _friendly(err, self.path) from None
         try:
             while True:
                 batch = cursor.fetchmany(500)
                 if not batch:
                     return
-                for row in batch:
-                    yield _record(row).as_dict()
+                for record in self._records(batch):
+                    yield record.as_dict()
         except sqlite3.Error as err:
             raise _friendly(err, self.path) from None
         finally:
@@ -903,19 +1114,35 @@ class JobLog:
         return True
 
 
-_COLUMNS = ", ".join(schema.JOB_COLUMNS)
 _INSERT = (
     "INSERT INTO jobs (created_at, updated_at, program_version, asset, location, by, note, verdict, "
-    "material, fitted, deleted_at, inputs_json, result_json, search_text) "
-    "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)"
+    "material, fitted, deleted_at, inputs_json, result_json, search_text, fitted_on, outcome, outcome_date) "
+    "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)"
 )
+
+
+class DamagedRow(Exception):
+    """A stored job whose inputs or result cannot be read back; ``str(err)`` names the job."""
+
+
+def _loaded(text: Any, job_id: Any, what: str, kind: type) -> Any:
+    try:
+        value = json.loads(text)
+    except (TypeError, ValueError, RecursionError):
+        raise DamagedRow(f"job {job_id} cannot be read: its stored {what} is damaged (not valid JSON)") from None
+    if not isinstance(value, kind):
+        raise DamagedRow(f"job {job_id} cannot be read: its stored {what} is damaged "
+                         f"({'null' if value is None else type(value).__name__}, not an object)")
+    return value
 
 
 def _record(row: tuple[Any, ...]) -> JobRecord:
     (job_id, created, updated, version, asset, location, by, note, verdict, material, fitted,
-     deleted_at, inputs_json, result_json) = row
+     deleted_at, inputs_json, result_json, fitted_on, outcome, outcome_date) = row
     return JobRecord(
-        id=job_id, created_at=created, updated_at=updated, program_version=version, asset=asset,
-        location=location, by=by, note=note, verdict=verdict, material=material, fitted=fitted,
-        deleted_at=deleted_at, inputs=json.loads(inputs_json), result=json.loads(result_json),
+        id=job_id, created_at=created, updated_at=updated, program_version=version or "",
+        asset=asset or "", location=location or "", by=by or "", note=note or "", verdict=verdict or "",
+        material=material or "", fitted=fitted or "", deleted_at=deleted_at,
+        inputs=_loaded(inputs_json, job_id, "inputs", dict), result=_loaded(result_json, job_id, "result", dict),
+        fitted_on=fitted_on or "", outcome=outcome or "", outcome_date=outcome_date or "",
     )

@@ -31,13 +31,57 @@ def _v2_to_v3(conn: sqlite3.Connection) -> None:
         _build_text_index(conn)
 
 
-STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3}
+def _v3_to_v4(conn: sqlite3.Connection) -> None:
+    import json
+
+    from workbench.store.text_search import job_search_text
+
+    for statement in schema.V3_TO_V4:
+        conn.execute(statement)
+
+    def loaded(text: object) -> object:
+        try:
+            return json.loads(text) if isinstance(text, str) else None
+        except (ValueError, RecursionError):
+            return None  # a damaged row keeps what can be read; the log reports it when listed
+
+    rows = conn.execute(
+        "SELECT id, asset, location, by, note, material, fitted, inputs_json, result_json FROM jobs"
+    ).fetchall()
+    conn.executemany(
+        "UPDATE jobs SET search_text = ? WHERE id = ?",
+        (
+            (job_search_text(dict(asset=a, location=l, by=b, note=n, material=m, fitted=f),
+                             loaded(i), loaded(r)), job_id)
+            for job_id, a, l, b, n, m, f, i, r in rows
+        ),
+    )
+
+
+STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {
+    1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3, 4: _v3_to_v4,
+}
 """STEPS[n] brings a log from version n - 1 to version n."""
 
 
 def user_version(conn: sqlite3.Connection) -> int:
     """The schema version recorded in the file (0 for a new, empty file)."""
     return int(conn.execute("PRAGMA user_version").fetchone()[0])
+
+
+def version_from_tables(conn: sqlite3.Connection) -> int | None:
+    """The schema version a log's tables show, for a file of ours whose ``user_version`` was lost
+    (reset to 0 by another tool): the newest version whose every column and table is there, or
+    None if there is no jobs table of ours at all."""
+    columns = {row[1] for row in conn.execute("PRAGMA table_info(jobs)")}
+    if not {"id", "created_at", "inputs_json", "result_json"} <= columns:
+        return None
+    tables = {row[0] for row in conn.execute("SELECT name FROM sqlite_master WHERE type = 'table'")}
+    if {"fitted_on", "outcome", "outcome_date"} <= columns and "job_changes" in tables:
+        return 4
+    if {"fitted", "deleted_at", "search_text"} <= columns:
+        return 3 if schema.TEXT_INDEX in tables else 2
+    return 1
 
 
 def migrate(conn: sqlite3.Connection, target: int = schema.LATEST_VERSION) -> int:

@@ -7,7 +7,7 @@ that another program's SQLite file is never taken for a job log.
 from __future__ import annotations
 
 APPLICATION_ID = 0x53424A4C  # "SBJL": Shaftbench job log
-LATEST_VERSION = 3
+LATEST_VERSION = 4
 
 # Version 1: one row per job; inputs and result as JSON text.
 V1 = (
@@ -76,13 +76,39 @@ TEXT_INDEX_CHECK = f"INSERT INTO {TEXT_INDEX}({TEXT_INDEX}) VALUES ('integrity-c
 TEXT_INDEX_MIN_CHARS = 3
 """A trigram index finds words of three characters or more; shorter words are matched with LIKE."""
 
+# Version 4: how a job ended, kept with the time of each change. ``fitted_on`` and
+# ``outcome_date`` are ISO dates (YYYY-MM-DD) or empty; ``outcome`` is empty, still-running, failed
+# or removed. Every change made after the save (notes, outcome, a recomputed result) adds a row to
+# job_changes: when, which field, the value before and after. search_text is rebuilt for every job
+# from the wider set of words in workbench/store/text_search.py (specs, who, fitted, verdict...).
+V3_TO_V4 = (
+    "ALTER TABLE jobs ADD COLUMN fitted_on TEXT NOT NULL DEFAULT ''",
+    "ALTER TABLE jobs ADD COLUMN outcome TEXT NOT NULL DEFAULT ''",
+    "ALTER TABLE jobs ADD COLUMN outcome_date TEXT NOT NULL DEFAULT ''",
+    """
+    CREATE TABLE job_changes (
+        id          INTEGER PRIMARY KEY AUTOINCREMENT,
+        job_id      INTEGER NOT NULL,
+        changed_at  TEXT NOT NULL,
+        field       TEXT NOT NULL,
+        old_value   TEXT NOT NULL DEFAULT '',
+        new_value   TEXT NOT NULL DEFAULT ''
+    )
+    """,
+    "CREATE INDEX job_changes_job ON job_changes(job_id, id)",
+)
+
 JOB_COLUMNS = (
     "id", "created_at", "updated_at", "program_version", "asset", "location", "by", "note",
     "verdict", "material", "fitted", "deleted_at", "inputs_json", "result_json",
+    "fitted_on", "outcome", "outcome_date",
 )
 """Columns of a job row at the latest version, in the order JobRecord is built from."""
+COLUMN_ADDED_IN = {"fitted": 2, "deleted_at": 2, "fitted_on": 4, "outcome": 4, "outcome_date": 4}
+"""The version that added each column after version 1 (a read-only older log is read without them)."""
 
 
 def search_text(asset: str, location: str, note: str, material: str) -> str:
-    """The case-folded text a job is found by: asset, location, notes and material."""
+    """The case-folded search text of versions 2 and 3: asset, location, notes and material (the
+    v1 -> v2 step fills it; v4 and later use text_search.job_search_text)."""
     return "\n".join((asset, location, note, material)).casefold()
