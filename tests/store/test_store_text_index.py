@@ -1,7 +1,7 @@
 """The v3 text index: same answers as a plain substring test, kept in step with every change.
 
 The reference for every filter is the rule stated in ``JobLog.search``: each word of the filter,
-case-folded, is a substring of the job's case-folded search text (workbench/store/text_search.py:
+case-folded, is a substring of the job's case-folded search text (workbench/store/search_words.py:
 asset, location, notes, material, who, what was fitted, outcome, specs, verdict words).
 """
 
@@ -16,7 +16,7 @@ from hypothesis import strategies as st
 from store_helpers import JOB_INPUTS, result_for
 
 from workbench.store import JobLog, log as log_module, migrations, schema
-from workbench.store.text_search import job_search_text
+from workbench.store.search_words import job_search_text
 
 needs_index = pytest.mark.skipif(
     not migrations.text_index_supported(),

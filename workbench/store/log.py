@@ -24,7 +24,7 @@ from typing import Any
 
 from workbench.store import migrations, schema, sqlite_files
 from workbench.store.paths import create_private_file, default_log_path, make_private_dirs
-from workbench.store.text_search import job_search_text
+from workbench.store.search_words import job_search_text
 
 __all__ = [
     "Difference",

@@ -34,7 +34,7 @@ def _v2_to_v3(conn: sqlite3.Connection) -> None:
 def _v3_to_v4(conn: sqlite3.Connection) -> None:
     import json
 
-    from workbench.store.text_search import job_search_text
+    from workbench.store.search_words import job_search_text
 
     for statement in schema.V3_TO_V4:
         conn.execute(statement)

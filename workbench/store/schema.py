@@ -80,7 +80,7 @@ TEXT_INDEX_MIN_CHARS = 3
 # ``outcome_date`` are ISO dates (YYYY-MM-DD) or empty; ``outcome`` is empty, still-running, failed
 # or removed. Every change made after the save (notes, outcome, a recomputed result) adds a row to
 # job_changes: when, which field, the value before and after. search_text is rebuilt for every job
-# from the wider set of words in workbench/store/text_search.py (specs, who, fitted, verdict...).
+# from the wider set of words in workbench/store/search_words.py (specs, who, fitted, verdict...).
 V3_TO_V4 = (
     "ALTER TABLE jobs ADD COLUMN fitted_on TEXT NOT NULL DEFAULT ''",
     "ALTER TABLE jobs ADD COLUMN outcome TEXT NOT NULL DEFAULT ''",
