@@ -328,6 +328,7 @@ def _cmd_show(args: argparse.Namespace) -> int:
     from rich.text import Text
 
     from workbench.report.jobcard import job_card_for_record, literal, when
+    from workbench.report.recheck import recheck_text
 
     console = _console()
     console.print(job_card_for_record(record))
@@ -354,23 +355,6 @@ def _cmd_show(args: argparse.Namespace) -> int:
         console.print(Text(f"This job is in the bin since {when(record.deleted_at)}.", style="bold"))
     console.print(recheck_text(reopened))
     return EXIT_OK
-
-
-def recheck_text(reopened: Any) -> Any:
-    """A plain statement of whether today's program agrees with a stored job (Rich Text)."""
-    from rich.text import Text
-
-    from workbench.report.jobcard import literal
-
-    if reopened.new_result is None:
-        return Text.assemble(("Today's program rejects these inputs: ", "bold red"), literal(reopened.error))
-    if not reopened.differences:
-        return Text("Recomputed today: same verdict and figures as stored.", style="green")
-    text = Text(f"Recomputed today: {len(reopened.differences)} figure(s) differ from the stored result "
-                f"(saved by version {reopened.record.program_version}):\n", style="bold yellow")
-    for diff in reopened.differences:
-        text.append_text(literal(f"  {diff}\n"))
-    return text
 
 
 def _cmd_export(args: argparse.Namespace) -> int:

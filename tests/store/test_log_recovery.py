@@ -268,7 +268,7 @@ LOCK_HOLDER = textwrap.dedent(
 
 
 def test_a_lock_held_past_the_busy_timeout_is_one_message_and_loses_nothing(tmp_path, monkeypatch):
-    import workbench.store.log as log_module
+    import workbench.store.sqlite_log as log_module
 
     path = tmp_path / "jobs.sqlite3"
     _make_log(path, 3)

@@ -15,7 +15,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from store_helpers import JOB_INPUTS, result_for
 
-from workbench.store import JobLog, log as log_module, migrations, schema
+from workbench.store import JobLog, migrations, schema, text_search as log_module
 from workbench.store.search_words import job_search_text
 
 needs_index = pytest.mark.skipif(

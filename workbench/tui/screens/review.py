@@ -398,7 +398,7 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         if record.deleted_at:
             parts.append(Text(f"In the bin since {when(record.deleted_at)} (r restores it)", style="bold yellow"))
         if record.id in self.rechecks:
-            from workbench.cli_log import recheck_text
+            from workbench.report.recheck import recheck_text
 
             parts.append(recheck_text(self.rechecks[record.id]))
         parts.append(job_summary(record) if self.has_class("-narrow") else job_card_for_record(record))
