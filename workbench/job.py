@@ -240,7 +240,7 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
             "pitch_diameter_m": mount.pitch_diameter_m,
             "overhang_m": mount.overhang_m,
             "side_load_N": checks[0].side_load_N,
-            "bending_moment_Nm": checks[0].bending_moment_Nm,
+            "bending_moment_Nm": max((c.bending_moment_Nm for c in checks[0].steps), default=checks[0].bending_moment_Nm),
             "source": mount_factors()[mount.element].source,
         },
         "settings": {
@@ -258,6 +258,9 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
         "verdict": shafts[-1]["verdict"],
         "cautions": list(CAUTIONS),
     }
+    warnings = result.setdefault("warnings", [])
+    for check in checks:
+        warnings.extend(w for w in check.assumptions if w not in warnings)
     result["layout"] = layout_dict(layout_in, checks[-1])
     result["moment_diagram"] = moment_diagram_dict(checks[-1], loads)
     from workbench.turning_job import attach_turning
@@ -320,7 +323,7 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "governing": check.governing,
         "why": check.why,
         "methods": check.methods,
-        "notes": _material_notes(case) + [n for n in check.notes],
+        "notes": _material_notes(case),
         **step_fields(check),
     }
 
@@ -372,7 +375,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
     Needs only ``shaft`` (and optionally ``candidate`` for its journal fact); returns
     ``{"existing": {...}, "equivalents": [...], "fit_facts": [...], "cautions": [...]}``.
     """
-    from workbench.core.substitution import equivalents, fit_facts
+    from workbench.core.substitution import HOLDS_FOR, equivalents, fit_facts
     from workbench.specs import format_spec
 
     try:
@@ -397,6 +400,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
             "stiffness_ratio": eq.stiffness_ratio,
             "mass_ratio": eq.mass_ratio,
             "next_stock": None if stock is None else format_spec(stock, system),
+            "holds_for_step": HOLDS_FOR,
         })
     return {
         "existing": {"spec": spec, "profile": existing.profile, "size_m": existing.size_m},

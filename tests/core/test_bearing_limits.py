@@ -43,6 +43,7 @@ def test_names_usable_on_the_command_line():
         assert name in names
     assert all(" " not in n and n == n.lower() for n in names)
     assert DEFAULT_BEARING_TYPE in names
+    assert "uncrowned-spur-gear" not in names  # a gear mesh, not a bearing type to pick
     assert slope_limit_rad("Deep Groove Ball") == slope_limit_rad("deep-groove-ball")
 
 

@@ -24,6 +24,8 @@ SCREENS = {
     "substitute": ["f3"],
     "stock": ["f4", "s"],
     "save": ["f6"],
+    "layout": ["pagedown"] * 4,  # the sheet's layout part (bearings, hub, steps)
+    "profile": None,  # special: the profile view of a result with steps (tests/tui/steps_fixture)
 }
 
 
@@ -42,6 +44,12 @@ def test_screen_snapshot(snap_compare, screen, size, tmp_path):
         if screen == "job_invalid":
             power = app.screen.query_one("#power", Input)
             power.value = "7.5 kV"
+        elif screen == "profile":
+            from workbench.tui.screens.profile import ProfileScreen
+
+            from .steps_fixture import stepped_result
+
+            app.push_screen(ProfileScreen(stepped_result()))
         else:
             for key in SCREENS[screen]:
                 await pilot.press(key)

@@ -28,6 +28,7 @@ class BearingSlope:
     """One row of the slope table: key, description, published range [rad], source, mark."""
 
     key: str
+    kind: str  # "bearing", or "gear" for the spur-gear mesh row
     name: str
     slope_min_rad: float
     slope_max_rad: float
@@ -39,9 +40,9 @@ class BearingSlope:
 def _rows() -> dict[str, BearingSlope]:
     filename = "bearing_slopes.csv"
     out = {}
-    for line, row in _read_rows(filename, ("key", "name", "slope_min_rad", "slope_max_rad")):
+    for line, row in _read_rows(filename, ("key", "kind", "name", "slope_min_rad", "slope_max_rad")):
         out[row["key"]] = BearingSlope(
-            key=row["key"], name=row["name"],
+            key=row["key"], kind=row["kind"], name=row["name"],
             slope_min_rad=_number(filename, line, row, "slope_min_rad"),
             slope_max_rad=_number(filename, line, row, "slope_max_rad"),
             source=row["source"], mark=row["mark"])
@@ -49,8 +50,9 @@ def _rows() -> dict[str, BearingSlope]:
 
 
 def bearing_types() -> list[str]:
-    """The bearing type names, in table order."""
-    return list(_rows())
+    """The bearing type names, in table order (the spur-gear mesh row is not a bearing: it is
+    left out here, though ``slope_limit_rad("uncrowned-spur-gear")`` gives its limit)."""
+    return [key for key, row in _rows().items() if row.kind == "bearing"]
 
 
 def bearing_slope_row(bearing_type: str) -> BearingSlope:
@@ -58,7 +60,7 @@ def bearing_slope_row(bearing_type: str) -> BearingSlope:
     key = (bearing_type or "").strip().lower().replace("_", "-").replace(" ", "-")
     rows = _rows()
     if key not in rows:
-        raise ValueError(f"bearing type {bearing_type!r} is not known; use one of {', '.join(rows)}")
+        raise ValueError(f"bearing type {bearing_type!r} is not known; use one of {', '.join(bearing_types())}")
     return rows[key]
 
 

@@ -88,7 +88,8 @@ class ShaftCheck:
     methods: dict[str, str] = field(default_factory=dict)
     steps: tuple = ()  # StepCheck items (workbench.core.step_checks), the shaft checked step by step
     governing_step: int | None = None  # index into ``steps`` whose figures the shaft's are
-    notes: tuple[str, ...] = ()  # what the step check assumed (layout defaults, bounds used)
+    notes: tuple[str, ...] = ()  # facts of the step check of this shaft (bounds used, how it is turned)
+    assumptions: tuple[str, ...] = ()  # layout defaults taken where the job gives less (job warnings)
     key: object = None  # KeyFigures of the hub-seat key (workbench.core.stiffness), when keyed
     stiffness: object = None  # StiffnessFigures (deflection, slopes, critical speed), when the span is known
     placed: object = None  # the layout placed along the shaft (workbench.core.layout.Placed)

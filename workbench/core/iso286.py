@@ -310,6 +310,7 @@ def parse_class(text: str) -> tuple[str, int, bool]:
     return letters, grade, is_hole
 
 
+@functools.lru_cache(maxsize=4096)  # a pure table look-up; a job asks for the same few many times
 def limits(size_m: float, class_text: str) -> Zone:
     """The limits of tolerance class ``class_text`` at nominal size ``size_m`` [m].
 

@@ -2,12 +2,14 @@
 
 from __future__ import annotations
 
+from rich import box
 from rich.console import Group
 from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
 from workbench.report import display as fmt
+from workbench.report.steps import STEPS_LEGEND, is_numeric_column, step_columns, shaft_checks, steps_of, steps_rows
 
 VERDICT_STYLE = {"pass": "bold green", "marginal": "bold yellow", "fail": "bold red"}
 
@@ -74,6 +76,28 @@ def _shafts_table(result: dict, system: str) -> Table:
     return table
 
 
+def steps_panel(result: dict, system: str) -> Panel | None:
+    """Each shaft as its steps (◀ the governing one) and the whole-shaft checks; None if no steps."""
+    parts = []
+    for shaft in result["shafts"]:
+        if not steps_of(shaft):
+            continue
+        table = Table(title=Text(f"{shaft['role']}: {shaft['spec']}"), title_justify="left",
+                      box=None, show_edge=False, pad_edge=False, padding=(0, 1, 0, 0), header_style="bold underline")
+        for column in step_columns(system):
+            table.add_column(column, justify="right" if is_numeric_column(column) else "left",
+                             no_wrap=not column.startswith("step"), min_width=8 if column == "step" else None)
+        for row in steps_rows(shaft, system):
+            table.add_row(*(Text(cell) for cell in row), style="bold" if "◀" in row[0] else "")
+        parts.append(table)
+        for label, value in shaft_checks(shaft, system):
+            parts.append(Text.assemble((f"  {label}: ", "dim"), value))
+    if not parts:
+        return None
+    parts.append(Text(STEPS_LEGEND, style="dim"))
+    return Panel(Group(*parts), title="Steps", title_align="left")
+
+
 def cautions_panel(cautions: list[str]) -> Panel:
     """The safety cautions, always shown."""
     body = Text("\n".join(f"! {line}" for line in cautions))
@@ -86,6 +110,9 @@ def render_check(result: dict, system: str = "metric") -> Group:
         Panel(_drive_table(result, system), title="Drive", title_align="left"),
         Panel(_shafts_table(result, system), title="Shafts", title_align="left"),
     ]
+    steps = steps_panel(result, system)
+    if steps is not None:
+        parts.append(steps)
     comparison = result.get("comparison")
     summary = Text("Verdict: ")
     summary.append_text(verdict_text(result["verdict"]))
@@ -96,6 +123,9 @@ def render_check(result: dict, system: str = "metric") -> Group:
             f"stiffness {comparison['stiffness_ratio']:.2f}x, mass {comparison['mass_ratio']:.2f}x"
         )
     parts.append(summary)
+    from workbench.report.steps_report import steps_panels
+
+    parts.extend(steps_panels(result, system))
     for shaft in result["shafts"]:
         solved = shaft.get("keyseat_solver")
         if solved:
@@ -106,6 +136,11 @@ def render_check(result: dict, system: str = "metric") -> Group:
             ))
         for note in shaft.get("notes", []):
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
+    from workbench.report.turning_sheet import render_turning
+
+    sheets = render_turning(result, system)
+    if sheets is not None:
+        parts.append(sheets)
     parts.append(methods_panel(result))
     parts.append(cautions_panel(result["cautions"]))
     return Group(*parts)
@@ -128,13 +163,16 @@ def methods_panel(result: dict) -> Panel:
     settings = result["settings"]
     lines.append("verdict: ", style="dim")
     lines.append(f"required safety factor {settings['required_sf']:g}; reliability {settings['reliability']:g}; "
-                 "marginal = within 10 % above the required factor, or twist over its limit")
+                 "marginal = within 10 % above the required factor, or twist over its limit; key factors count like "
+                 "the others; a bearing slope over its limit or running at 75 % of the first critical speed is "
+                 "marginal, over twice the slope limit or at 90 % fails")
     return Panel(lines, title="Methods and sources", title_align="left", border_style="dim")
 
 
 def render_substitution(result: dict, system: str = "metric") -> Group:
     """Equivalent bars for the shaft as found, with their ratios and the fit facts."""
-    table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material)"))
+    table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material; "
+                             "figures for the body step)"))
     for name in ("profile", "basis", "size", "strength", "stiffness", "mass", "next stock up"):
         table.add_column(name)
     for row in result["equivalents"]:
@@ -156,9 +194,10 @@ def render_stock(result: dict, system: str = "metric") -> Group:
         journal = fmt.length(row["largest_journal_m"], system)
         if row["gives_existing_journal"] is False:
             journal += " *"
+        governing = row["governing"] + (f" at {row['governing_step_label']}" if row.get("governing_step_label") else "")
         table.add_row(
             Text(row["label"]), row["material"], verdict_text(row["verdict"]),
-            fmt.factor(row["min_safety_factor"]), row["governing"], fmt.mass_per_length(row["mass_kg_per_m"], system),
+            fmt.factor(row["min_safety_factor"]), Text(governing), fmt.mass_per_length(row["mass_kg_per_m"], system),
             journal,
         )
     lines = Text()

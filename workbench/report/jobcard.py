@@ -215,6 +215,32 @@ def _shafts(result: Mapping[str, Any]) -> RenderableType:
     return Group(table, *whys, *notes)
 
 
+def _steps(result: Mapping[str, Any]) -> RenderableType | None:
+    """The steps table of each shaft (the governing step marked ◀), or None when none has steps."""
+    from workbench.report.steps import STEPS_LEGEND, is_numeric_column, step_columns, shaft_checks, steps_of, steps_rows
+
+    parts: list[RenderableType] = []
+    for shaft in (s for s in (result.get("shafts") or []) if isinstance(s, Mapping)):
+        if not steps_of(shaft):
+            continue
+        table = Table(box=None, pad_edge=False, expand=False, header_style="bold underline",
+                      title=Text.assemble((f"{shaft.get('role', 'shaft')}: ", "bold"), literal(shaft.get("spec", ""))),
+                      title_justify="left", padding=(0, 1, 0, 0))
+        for column in step_columns():
+            table.add_column(column, justify="right" if is_numeric_column(column) else "left",
+                             no_wrap=not column.startswith("step"), min_width=8 if column == "step" else None)
+        for row in steps_rows(shaft):
+            table.add_row(*(literal(cell) for cell in row), style="bold" if "◀" in row[0] else "")
+        parts.append(table)
+        checks = shaft_checks(shaft)
+        if checks:
+            parts.append(_pairs(checks))
+    if not parts:
+        return None
+    parts.append(Text(STEPS_LEGEND, style="dim"))
+    return Group(*parts)
+
+
 def deciding_shaft(result: Mapping[str, Any]) -> Mapping[str, Any]:
     """The shaft the overall verdict is about: the candidate if there is one, else the existing."""
     shafts = shafts_of(result)
@@ -296,12 +322,14 @@ def job_card(
         ("program", literal(program_version or (result.get("program") or {}).get("version", "-"))),
     ])
     notes = literal(note) if note else Text("none", style="dim")
+    steps = _steps(result)
     return Panel(
         Group(
             head,
             _section("Drive", _drive(result)),
             _section("Mount", _mount(result)),
             _section("Shafts", _shafts(result)),
+            *([_section("Steps", steps)] if steps is not None else []),
             _section("Verdict", _verdict(result, fitted, extra or {})),
             _section("Notes", notes),
             _section("Safety cautions", _cautions(result)),
@@ -318,10 +346,14 @@ def job_card_for_record(record: Any) -> RenderableType:
     from workbench.report.card_page import CardJob
 
     job = CardJob.from_record(record)
-    return job_card(
+    card = job_card(
         job.result, asset=job.asset, location=job.location, by=job.by, note=job.note, fitted=job.fitted,
         job_id=job.job_id, created_at=job.created_at, program_version=job.program_version, extra=job.extra,
     )
+    from workbench.report.turning_sheet import render_turning
+
+    sheets = render_turning(job.result) if job.result.get("shafts") else None
+    return card if sheets is None else Group(card, sheets)  # the turning sheet after the card
 
 
 def card_page_for_records(records: list[Any], *, paper: str | None = None) -> str:

@@ -34,6 +34,9 @@ class ShaftbenchApp(App):
         Binding("f5", "units", "Units", id="app.units", tooltip="Metric / inch display"),
         Binding("f6", "save", "Save", id="app.save", tooltip="Save the job to the job log"),
         Binding("f7", "review", "Log", id="app.review", tooltip="Open the job log"),
+        Binding("f9", "profile", "Profile", id="app.profile", tooltip="Side profile, steps, moment diagram"),
+        Binding("f10", "turning", "Turning", id="app.turning", tooltip="Turning sheet: sizes, limits, keyseat", show=False),
+        Binding("f11", "fits", "Fits", id="app.fits", tooltip="ISO 286 limits and fits calculator", show=False),
         Binding("ctrl+q", "quit", "Quit", id="app.quit", priority=True),
     ]
 
@@ -108,6 +111,12 @@ class ShaftbenchApp(App):
 
         self.push_screen(SectionScreen(self.inputs()))
 
+    def action_profile(self) -> None:
+        """Draw the shafts' steps and the bending-moment diagram, governing step marked."""
+        from .screens.profile import ProfileScreen
+
+        self.push_screen(ProfileScreen(self.job_screen.result or self.job_screen.panel.result))
+
     def action_substitute(self) -> None:
         """Equal-strength and equal-stiffness sizes in the other profiles."""
         from .screens.substitute import SubstituteScreen
@@ -134,6 +143,18 @@ class ShaftbenchApp(App):
             return
         self.job_screen.sheet.set_candidate(choice["spec"], choice.get("material", ""))
         self.notify(f"Candidate set: {choice['spec']} {choice.get('material', '')}".strip())
+
+    def action_turning(self) -> None:
+        """The turning sheet of the current job (screens/turning.py)."""
+        from .screens.turning import TurningScreen
+
+        self.push_screen(TurningScreen(self.job_screen.result))
+
+    def action_fits(self) -> None:
+        """The ISO 286 limits and fits calculator (screens/fits.py)."""
+        from .screens.fits import FitsScreen
+
+        self.push_screen(FitsScreen())
 
     def action_units(self) -> None:
         """Toggle the display between metric and inch (inputs accept either)."""

@@ -15,6 +15,8 @@ ACTIONS: tuple[tuple[str, str, str, bool], ...] = (
     ("Toggle metric / inch", "units", "Display units (inputs accept either) (F5)", False),
     ("Save job to log", "save", "Asset, location, by, note (F6)", True),
     ("Open job log", "review", "Reopen or duplicate a saved job (F7)", False),
+    ("Turning sheet", "turning", "Sizes and limits to turn, keyseat to cut (F10)", True),
+    ("Fits calculator", "fits", "ISO 286 limits of a class or fit, measured sizes (F11)", False),
     ("Load demo job", "load_demo", "Put the demo job on the sheet", False),
     ("Clear sheet", "clear_sheet", "Empty every field", False),
 )

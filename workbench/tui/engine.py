@@ -336,3 +336,16 @@ def section_view(inputs: dict[str, str], max_cols: int, max_rows: int) -> dict[s
     if peaks and len(peaks) == len([s for s in view["sections"] if not s.get("error")]):
         view["scale_Pa"] = max(peaks)
     return view
+
+
+def fit_calculator(size: str, cls: str, measured: str = "") -> tuple[str | None, str]:
+    """The fits calculator's text answer for typed size, class and optional measured size
+    (answer, message-if-not); see workbench/fitcalc.py."""
+    job = _job_module()
+    from workbench.fitcalc import fit_inputs, fit_text
+
+    try:
+        readings = [[part for part in measured.replace(",", " ").split()]] if measured.strip() else None
+        return fit_text(fit_inputs(size, cls, measured=readings)), ""
+    except job.JobInputError as err:
+        return None, str(err)

@@ -15,6 +15,11 @@ PROFILES = ("round", "tube", "square", "flat", "hex")
 KEYSEATS = ("plain", "keyed")
 FINISHES = ("machined", "ground", "cold-drawn", "hot-rolled", "forged")
 CRITERIA = ("goodman", "gerber", "asme-elliptic", "soderberg")
+#: bearing types of data/bearing_slopes.csv, the default (deep-groove ball) first; a test keeps
+#: this list equal to workbench.core.bearing_limits.bearing_types() (not imported: start-up)
+BEARING_TYPES = ("deep-groove-ball", "cylindrical-roller", "tapered-roller", "spherical-roller",
+                 "self-aligning-ball", "spherical-ball")
+ELEMENT_POSITIONS = ("overhung", "between")
 
 
 @dataclass(frozen=True)
@@ -77,8 +82,26 @@ SECTIONS: tuple[SectionSpec, ...] = (
         "candidate", "4 Candidate", _shaft_fields("candidate", "candidate_material", "as found")
     ),
     SectionSpec(
+        "layout",
+        "5 Layout (blank = defaults)",
+        (
+            FieldSpec("bearing_span", "Bearing span", "centre to centre", placeholder="not known"),
+            FieldSpec("bearing_type", "Bearings", "d c t s", choices=BEARING_TYPES),
+            FieldSpec("element_position", "Element sits", "o, b = between", choices=ELEMENT_POSITIONS),
+            FieldSpec("load_from_bearing", "From bearing", "bearing → load line", placeholder="e.g. 150"),
+            FieldSpec("hub_length", "Hub length", "along the shaft", placeholder="default"),
+            FieldSpec("element_mass", "Element mass", "kg, lb · bare = kg", placeholder="not known"),
+            FieldSpec("journal", "Journals", "as found · bare = mm", placeholder="= shaft"),
+            FieldSpec("seat", "Hub seat", "as found · bare = mm", placeholder="= shaft"),
+            FieldSpec("fillet", "Fillet r", "as found · bare = mm", placeholder="r/d 0.02"),
+            FieldSpec("candidate_journal", "Cand. journals", "bare = mm", placeholder="= as found"),
+            FieldSpec("candidate_seat", "Cand. seat", "bare = mm", placeholder="= as found"),
+            FieldSpec("candidate_fillet", "Cand. fillet", "bare = mm", placeholder="r/d 0.02"),
+        ),
+    ),
+    SectionSpec(
         "settings",
-        "5 Check settings",
+        "6 Check settings",
         (
             FieldSpec("required_sf", "Required SF", "for the verdict", placeholder="1.5"),
             FieldSpec("criterion", "Fatigue rule", "g e a s", choices=CRITERIA),
@@ -95,7 +118,11 @@ FIELD_BY_KEY = {f.key: f for f in ALL_FIELDS}
 ERROR_TARGET = {"shaft": "shaft_size", "candidate": "candidate_size"}
 
 #: choice fields whose first entry is the contract default: left out of the inputs when unchanged
-CHOICE_DEFAULTS = {"mount": "coupling", "criterion": "goodman"}
+CHOICE_DEFAULTS = {"mount": "coupling", "criterion": "goodman", "bearing_type": BEARING_TYPES[0],
+                   "element_position": ELEMENT_POSITIONS[0]}
+
+#: layout fields shown only for one choice of another field (hidden rows are skipped by Tab)
+SHOWN_WHEN = {"load_from_bearing": ("element_position", "between")}
 
 SECOND_LABEL = {"tube": "Bore", "flat": "Thickness"}
 SIZE_HINT = {

@@ -20,6 +20,7 @@ Keys
   →                 accept the greyed completion (materials)
   F1 this help   F2 section view   F3 substitution sizes   F4 stock finder
   F5 metric / inch display   F6 save to the job log   F7 open the job log
+  F9 shaft profile: the steps, bending-moment diagram, governing step marked
   Ctrl+P command palette   Ctrl+Q quit   Esc back from any view
 
 Typing

@@ -8,11 +8,13 @@ from textual import work
 from textual.app import ComposeResult
 from textual.containers import Horizontal
 from textual.screen import Screen
-from textual.widgets import Footer, Static
+from textual.widgets import Footer, Input, Static
 from textual.worker import get_current_worker
 
 from .. import engine
 from ..messages import EvaluationReady, SheetChanged
+from ..typeahead import MOVE_BINDINGS, TypeAheadMixin
+from ..widgets.choice import Choice
 from ..widgets.job_sheet import JobSheet
 from ..widgets.steady import update_in_place
 from ..widgets.verdict_panel import VerdictPanel
@@ -20,8 +22,10 @@ from ..widgets.verdict_panel import VerdictPanel
 NARROW_BELOW = 100
 
 
-class JobScreen(Screen):
+class JobScreen(TypeAheadMixin, Screen):
     """Sheet + verdict; recomputes in a worker a moment after each edit."""
+
+    BINDINGS = [*MOVE_BINDINGS]
 
     def __init__(self, first_inputs: dict[str, str] | None = None) -> None:
         super().__init__(id="job")
@@ -86,7 +90,8 @@ class JobScreen(Screen):
     def show_job_now(self, inputs: dict[str, str]) -> None:
         """Put ``inputs`` on the sheet and show their evaluation at once (no debounce, no worker):
         used before the first paint, so that the first frame already holds the verdict."""
-        self.sheet.load_inputs(inputs)
+        with self.prevent(Input.Changed, Choice.Changed):  # evaluated here, and the spec lines set
+            self.sheet.load_inputs(inputs)
         self.sheet.cancel_pending()
         self.generation += 1
         self.last_inputs = self.sheet.inputs()

@@ -45,7 +45,11 @@ class Choice(Widget, can_focus=True):
         self.set_reactive(Choice.value, value if value in self.options else self.options[0])
 
     def render(self) -> Text:
-        return Text.assemble(("‹ ", "dim"), self.value, (" ›", "dim"))
+        return Text.assemble(("‹ ", "dim"), self.value, (" ›", "dim"), no_wrap=True, overflow="ellipsis")
+
+    def get_content_height(self, container, viewport, width: int) -> int:
+        """Always one line: a long entry is cut at the field's width, never wrapped."""
+        return 1
 
     def watch_value(self, value: str) -> None:
         self.post_message(self.Changed(self, value))

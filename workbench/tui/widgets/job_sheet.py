@@ -15,6 +15,7 @@ from ..fields import (
     FIELD_BY_KEY,
     SECOND_LABEL,
     SECTIONS,
+    SHOWN_WHEN,
     SIZE_HINT,
     SIZE_PLACEHOLDER,
     compose_spec,
@@ -68,6 +69,7 @@ class JobSheet(VerticalScroll, can_focus=False):
     def on_mount(self) -> None:
         for prefix in SHAFT_PREFIXES:
             self._apply_profile(prefix)
+        self._apply_shown()
 
     # -- reading -------------------------------------------------------------------------------
     def row(self, key: str) -> FieldRow:
@@ -97,7 +99,7 @@ class JobSheet(VerticalScroll, can_focus=False):
             if key.startswith(SHAFT_PREFIXES) and key.split("_", 1)[1] in _SHAFT_PARTS:
                 continue
             text = self.value(key)
-            if not text or CHOICE_DEFAULTS.get(key) == text:
+            if not text or CHOICE_DEFAULTS.get(key) == text or not self._shown(key):
                 continue
             out[key] = text
         for prefix in SHAFT_PREFIXES:
@@ -179,8 +181,19 @@ class JobSheet(VerticalScroll, can_focus=False):
             text += f"\n{tip}"  # how to enter flats, radii, chamfers: until they are used
         update_in_place(self.query_one(f"#spec-{prefix}", Static), text)
 
+    def _shown(self, key: str) -> bool:
+        """False for a field that only applies to another choice (e.g. From bearing, overhung)."""
+        rule = SHOWN_WHEN.get(key)
+        return rule is None or self.value(rule[0]) == rule[1]
+
+    def _apply_shown(self) -> None:
+        for key in SHOWN_WHEN:
+            self.row(key).display = self._shown(key)
+
     def on_choice_changed(self, event: Choice.Changed) -> None:
         key = event.choice.id or ""
+        if any(rule[0] == key for rule in SHOWN_WHEN.values()):
+            self._apply_shown()
         if key.endswith("_profile"):
             self._apply_profile(key.rsplit("_", 1)[0])
         elif key.startswith(SHAFT_PREFIXES):

@@ -10,6 +10,7 @@ from textual.containers import VerticalScroll
 from textual.widgets import Static
 
 from workbench.report import display
+from workbench.report.steps import governing_step_name, steps_of
 
 from .steady import update_in_place
 
@@ -35,6 +36,9 @@ def verdict_rows(result: dict[str, Any], system: str, gauge_width: int = 10):
     def each(fn):
         return [fn(s) for s in shafts]
 
+    stepped = [] if not any(steps_of(s) for s in shafts) else [
+        ("governing step", each(lambda s: governing_step_name(s, system) or "—")),
+    ]
     return [
         ("profile", each(lambda s: s.get("spec", "—"))),
         ("material", each(lambda s: s.get("material", "—"))),
@@ -44,6 +48,7 @@ def verdict_rows(result: dict[str, Any], system: str, gauge_width: int = 10):
         ("combined (vM)", each(lambda s: display.stress(s.get("von_mises_stress_Pa"), system))),
         ("static SF", each(lambda s: display.factor(s.get("static_safety_factor")))),
         ("fatigue SF", each(lambda s: display.factor(s.get("fatigue_safety_factor")))),
+        *stepped,
         ("twist", each(lambda s: display.twist(s.get("twist_deg_per_m"), system))),
         ("mass", each(lambda s: display.mass_per_length(s.get("mass_kg_per_m"), system))),
         (
