@@ -53,6 +53,8 @@ class ShaftbenchApp(App):
         self.system = "metric"
         self.initial_inputs = initial_inputs
         self.meta: dict[str, str] = {}
+        self.logged_job_id: int | None = None
+        """The log's job the sheet holds (reopened or saved), so saving again asks update or new."""
 
     def get_default_screen(self) -> JobScreen:
         """The job sheet is the bottom screen: one screen to compose before the first frame."""
@@ -173,11 +175,13 @@ class ShaftbenchApp(App):
         if result is None:
             self.notify("Nothing to save yet: the sheet has no current result.", severity="warning")
             return
-        self.push_screen(SaveScreen(self.inputs(), result, self.meta, self.log_path), self._saved)
+        self.push_screen(SaveScreen(self.inputs(), result, self.meta, self.log_path, job_id=self.logged_job_id),
+                         self._saved)
 
     def _saved(self, outcome: dict[str, Any] | None) -> None:
         if outcome:
             self.meta = {k: outcome[k] for k in ("asset", "location", "by", "note") if k in outcome}
+            self.logged_job_id = outcome.get("job_id")
 
     def action_review(self) -> None:
         """Open the job log; reopen or duplicate a saved job."""
@@ -190,6 +194,7 @@ class ShaftbenchApp(App):
             return
         self.job_screen.sheet.load_inputs({k: str(v) for k, v in choice["inputs"].items()})
         job_id = choice.get("job_id", "?")
+        self.logged_job_id = None
         if choice.get("action") == "duplicate":
             self.meta = {}
             self.notify(f"Copy of job {job_id} on the sheet; saving makes a new entry.")
@@ -207,6 +212,7 @@ class ShaftbenchApp(App):
             self.notify(f"Job {job_id} reopened; could not compare with the stored result: {err}", severity="warning")
             return
         record = reopened.record
+        self.logged_job_id = record.id
         self.meta = {"asset": record.asset, "location": record.location, "by": record.by, "note": record.note}
         if reopened.error:
             self.notify(f"Job {job_id} reopened, but today's program refuses it: {reopened.error}",
@@ -224,11 +230,13 @@ class ShaftbenchApp(App):
         from workbench.demo import DEMO_META, demo_inputs
 
         self.meta = dict(DEMO_META)
+        self.logged_job_id = None
         self.job_screen.sheet.load_inputs(demo_inputs())
 
     def action_clear_sheet(self) -> None:
         """Empty every field of the sheet."""
         self.meta = {}
+        self.logged_job_id = None
         self.job_screen.sheet.load_inputs({})
         self.job_screen.query_one("#power").focus()
 
