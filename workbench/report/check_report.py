@@ -123,9 +123,6 @@ def render_check(result: dict, system: str = "metric") -> Group:
             f"stiffness {comparison['stiffness_ratio']:.2f}x, mass {comparison['mass_ratio']:.2f}x"
         )
     parts.append(summary)
-    from workbench.report.steps_report import steps_panels
-
-    parts.extend(steps_panels(result, system))
     for shaft in result["shafts"]:
         solved = shaft.get("keyseat_solver")
         if solved:
@@ -134,7 +131,7 @@ def render_check(result: dict, system: str = "metric") -> Group:
                 f"Kts {solved['Kts_solver']:.2f} by the solver vs {solved['Kts_handbook']:.2f} handbook (checks use "
                 f"the handbook); J {solved['torsion_constant_ratio']:.0%} of the plain round — {solved['method']}"
             ))
-        for note in shaft.get("notes", []):
+        for note in [*shaft.get("notes", []), *shaft.get("steps_notes", [])]:
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
     from workbench.report.turning_sheet import render_turning
 
