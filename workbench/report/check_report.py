@@ -155,7 +155,7 @@ def render_check(result: dict, system: str = "metric") -> Group:
                 f"Kts {solved['Kts_solver']:.2f} by the solver vs {solved['Kts_handbook']:.2f} handbook (checks use "
                 f"the handbook); J {solved['torsion_constant_ratio']:.0%} of the plain round — {solved['method']}"
             ))
-        for note in shaft.get("notes", []):
+        for note in [*shaft.get("notes", []), *shaft.get("steps_notes", [])]:
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
     from workbench.report.turning_sheet import render_turning
 
