@@ -198,6 +198,7 @@ def step_fields(check) -> dict:
     stiff = check.stiffness
     return {
         "steps": steps,
+        "steps_notes": list(check.notes),
         "governing_step": check.governing_step,
         "governing_step_label": check.steps[check.governing_step].step.label if check.steps else None,
         "key": key,

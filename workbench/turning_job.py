@@ -119,11 +119,8 @@ def attach_turning(result: dict, inputs: Mapping[str, str]) -> None:
         if not steps:
             d = _turned_size_m(shaft)
             steps = uniform_steps(d, bool(shaft.get("keyed")), _assumed_fillet_m(shaft, d))
-        dims = shaft["dimensions_m"]
-        key = None
-        if dims.get("key_width_m") and dims.get("key_depth_m"):
-            key = {"width_m": dims["key_width_m"], "depth_m": dims["key_depth_m"]}
         standard = "ansi" if _is_inch_spec(shaft.get("spec", "")) else "iso"
+        key = _key_for(shaft, steps, standard)
         try:
             sheet = turning_sheet(steps, options, key=key, key_standard=standard)
         except ToleranceError as err:
@@ -132,6 +129,26 @@ def attach_turning(result: dict, inputs: Mapping[str, str]) -> None:
         shaft["turning"] = sheet["rows"]
         shaft["keyseat"] = sheet["keyseat"]
         shaft["turning_sheet"] = {"bearing": sheet["bearing"], "notes": sheet["notes"], "options": sheet["options"]}
+
+
+def _key_for(shaft: Mapping, steps, standard: str) -> dict | None:
+    """The keyseat's key (width, shaft depth t1, length) at the keyed seat: the shaft's own key
+    when the seat is at the shaft's size, else the standard key for the seat's diameter
+    (DIN 6885-1 / ANSI B17.1, data/keys_*.csv); the key length the key check used, if any."""
+    from workbench.core.tables import key_for_diameter
+
+    seats = [s for s in steps if s["kind"] == "seat" and s.get("keyed")]
+    if not seats:
+        return None
+    d = float(seats[0]["diameter_m"])
+    dims = shaft["dimensions_m"]
+    length = (shaft.get("key") or {}).get("key_length_m")
+    if dims.get("key_width_m") and dims.get("key_depth_m") and abs(dims["size_m"] - d) < 1e-9:
+        return {"width_m": dims["key_width_m"], "depth_m": dims["key_depth_m"], "length_m": length}
+    row = key_for_diameter(d, standard)
+    if row is None:
+        return None
+    return {"width_m": row.width_m, "depth_m": row.shaft_depth_m, "length_m": length}
 
 
 def _is_inch_spec(spec: str) -> bool:

@@ -116,11 +116,14 @@ def _assert_printed_well(pages: list[dict], paper: str) -> None:
 
 @pytest.mark.parametrize("paper", ["a4", "letter"])
 def test_two_jobs_print_on_one_page_each(browser, tmp_path, paper):
+    from workbench.report.turning_sheet import sheet_shafts
+
     jobs = _jobs()
     pages = read_pdf(print_pdf(browser, cp.card_page(jobs, paper=paper), tmp_path))
-    assert len(pages) == len(jobs)
+    per_job = [1 + len(sheet_shafts(job.result)) for job in jobs]  # the card, then a turning sheet per shaft
+    assert len(pages) == sum(per_job)
     _assert_printed_well(pages, paper)
-    first, second = (_squash(p["text"]) for p in pages)
+    first, second = (_squash(pages[sum(per_job[:i])]["text"]) for i in range(len(jobs)))
     # everything typed is there, whole, on its job's page (the long tag wrapped, not cut)
     for typed in (LONG_TAG, *NOTE.splitlines(), "J. Fitter", "Crusher line 2, conveyor 7 head end"):
         assert _squash(typed) in first
@@ -134,7 +137,7 @@ def test_two_jobs_print_on_one_page_each(browser, tmp_path, paper):
 
 
 def test_a_section_on_its_own_page_follows_the_card(browser, tmp_path, monkeypatch):
-    monkeypatch.setattr(cp, "CARD_SECTIONS", list(cp.CARD_SECTIONS))
+    monkeypatch.setattr(cp, "CARD_SECTIONS", [s for s in cp.CARD_SECTIONS if not s[0].startswith("turning-")])
     marker = "TURNING-SHEET-PAGE-MARKER"
     cp.add_section(
         "turning", lambda job: cp.PageSection("turning", "Turning sheet", f"<p>{marker}</p>", own_page=True)
@@ -144,3 +147,21 @@ def test_a_section_on_its_own_page_follows_the_card(browser, tmp_path, monkeypat
     _assert_printed_well(pages, "letter")
     assert marker not in pages[0]["text"] and marker in pages[1]["text"]
     assert "Safetycautions" in _squash(pages[0]["text"])
+
+
+@pytest.mark.parametrize("paper", ["a4", "letter"])
+def test_turning_sheets_print_one_page_per_shaft_after_the_card(browser, tmp_path, paper):
+    from workbench.job import evaluate_inputs
+    from workbench.demo import demo_inputs
+
+    result = evaluate_inputs({**demo_inputs(), "bearing": "6208", "turning_sheets": "both"})
+    pages = read_pdf(print_pdf(browser, cp.card_page([cp.CardJob(result, job_id=3)], paper=paper), tmp_path))
+    assert len(pages) == 3  # the card, then the existing and the candidate shaft's sheets
+    _assert_printed_well(pages, paper)
+    card, *sheets = (_squash(p["text"]) for p in pages)
+    assert "Turningsheet" not in card
+    specs = {s["role"]: _squash(s["spec"]) for s in result["shafts"]}
+    for sheet, role in zip(sheets, ("candidate", "existing")):  # the candidate's sheet first
+        assert "Turningsheet" in sheet and f"{role}{specs[role]}" in sheet
+        assert "40.002-40.018" in sheet  # 40 k6 journal, +18/+2 um (JIS B 0401 / ISO 286-2)
+    assert "N9" in sheets[1] and "JS9" in sheets[1]  # the keyed shaft's keyseat

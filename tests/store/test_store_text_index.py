@@ -14,7 +14,7 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 from store_helpers import JOB_INPUTS, result_for
 
-from workbench.store import JobLog, log as log_module, migrations, schema
+from workbench.store import JobLog, migrations, schema, text_search as log_module
 
 needs_index = pytest.mark.skipif(
     not migrations.text_index_supported(),

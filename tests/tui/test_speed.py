@@ -37,14 +37,20 @@ def _frames(app_class):
 async def test_the_first_frame_already_shows_the_demo_verdict(tmp_path):
     from workbench.tui.app import ShaftbenchApp
 
+    from workbench.demo import demo_inputs
+    from workbench.job import evaluate_inputs
+    from workbench.report import display
+
+    result = evaluate_inputs(demo_inputs())  # what the banner must say: the contract's verdict
+    banner = f"{display.verdict(result['verdict'])}  candidate {result['shafts'][-1]['spec']}"
     app = _frames(ShaftbenchApp)(demo=True, log_path=str(tmp_path / "jobs.sqlite3"))
     async with app.run_test(size=(120, 40)) as pilot:
         await pilot.pause()
         assert app.frames, "no frame was drawn"
-        assert "✓ PASS  candidate square 40mm" in app.frames[0]
+        assert banner in app.frames[0]
         assert "running torque" in app.frames[0]
         await settle(pilot)
-        assert "✓ PASS" in plain_text(app.job_screen.query_one("#verdict-banner"))
+        assert banner in plain_text(app.job_screen.query_one("#verdict-banner"))
 
 
 def test_the_demo_verdict_needs_no_pint():

@@ -26,6 +26,7 @@ Public API::
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass
 
@@ -105,6 +106,13 @@ def first_critical_speed(segments, supports_m, masses) -> CriticalSpeed:
     own mass as lumped stations (Rayleigh) and as one Dunkerley term (Example 7-5 (f)). Raises
     BeamInputError for a layout beam_response refuses or when nothing has mass.
     """
+    return _first_critical_speed(tuple(tuple(float(v) for v in s) for s in segments),
+                                 tuple(float(x) for x in supports_m),
+                                 tuple((float(x), float(m)) for x, m in masses))
+
+
+@functools.lru_cache(maxsize=256)  # pure in its (hashable) inputs: geometry and masses, not the load
+def _first_critical_speed(segments, supports_m, masses) -> CriticalSpeed:
     beam_segments = [(x0, x1, ei) for x0, x1, ei, _mpl in segments]
     lumps = _shaft_lumps(segments)
     points = [(float(x), float(m)) for x, m in masses if m > 0]

@@ -211,31 +211,58 @@ def moment_at_Nm(placed: Placed, forces: list[tuple[float, float]], x_m: float) 
     bearing-1 value F a beyond (conservative); an element between the bearings is taken as a
     cantilever from bearing 1, M = F b over the whole span (conservative).
     """
-    b1, b2 = placed.bearing_x_m
-    if b2 is None:
-        x_load, force = forces[0]
-        if placed.layout.position == "overhung":
-            return abs(force) * max(0.0, min(x_m, b1) - x_load)
-        return abs(force) * abs(x_load - b1) if x_m >= b1 else 0.0
-    r1, r2 = reactions_N(placed, forces)
-    total = 0.0
-    for x, f in forces:
-        if x < x_m:
+    return MomentLine(placed, forces).at(x_m)
+
+
+class MomentLine:
+    """The bending-moment diagram of one set of loads, with its reactions worked out once."""
+
+    __slots__ = ("placed", "forces", "terms")
+
+    def __init__(self, placed: Placed, forces: list[tuple[float, float]]) -> None:
+        self.placed = placed
+        self.forces = forces
+        b1, b2 = placed.bearing_x_m
+        if b2 is None:
+            self.terms = None
+        else:
+            r1, r2 = reactions_N(placed, forces)
+            self.terms = sorted([*forces, (b1, -r1), (b2, -r2)])
+
+    def at(self, x_m: float) -> float:
+        """|M(x)| [N*m] (see :func:`moment_at_Nm`)."""
+        if self.terms is None:
+            placed = self.placed
+            b1 = placed.bearing_x_m[0]
+            x_load, force = self.forces[0]
+            if placed.layout.position == "overhung":
+                return abs(force) * max(0.0, min(x_m, b1) - x_load)
+            return abs(force) * abs(x_load - b1) if x_m >= b1 else 0.0
+        total = 0.0
+        for x, f in self.terms:
+            if x >= x_m:
+                break
             total += f * (x_m - x)
-    if b1 < x_m:
-        total -= r1 * (x_m - b1)
-    if b2 < x_m:
-        total -= r2 * (x_m - b2)
-    return abs(total)
+        return abs(total)
+
+    def max_over(self, x_lo: float, x_hi: float) -> float:
+        """Largest |M| over [x_lo, x_hi] [N*m]: the diagram is piecewise linear, so the largest value
+        is at an end or at a load or support inside."""
+        best = max(self.at(x_lo), self.at(x_hi))
+        points = self.terms if self.terms is not None else self.forces
+        for x, _ in points:
+            if x_lo < x < x_hi:
+                best = max(best, self.at(x))
+        if self.terms is None:
+            b1 = self.placed.bearing_x_m[0]
+            if x_lo < b1 < x_hi:
+                best = max(best, self.at(b1))
+        return best
 
 
 def max_moment_Nm(placed: Placed, forces: list[tuple[float, float]], x_lo: float, x_hi: float) -> float:
-    """Largest |M| over [x_lo, x_hi] [N*m]: the diagram is piecewise linear, so the largest value is at
-    an end or at a load or support inside."""
-    points = [x_lo, x_hi]
-    points += [x for x, _ in forces if x_lo < x < x_hi]
-    points += [b for b in placed.bearing_x_m if b is not None and x_lo < b < x_hi]
-    return max(moment_at_Nm(placed, forces, x) for x in points)
+    """Largest |M| over [x_lo, x_hi] [N*m] (see :meth:`MomentLine.max_over`)."""
+    return MomentLine(placed, forces).max_over(x_lo, x_hi)
 
 
 def torque_fraction(placed: Placed, x_lo: float, x_hi: float) -> float:
@@ -261,6 +288,7 @@ def moment_diagram(placed: Placed, forces: list[tuple[float, float]], torque_Nm:
     if points:
         xs.update(placed.length_m * i / points for i in range(points + 1))
     ordered = sorted(x for x in xs if 0.0 <= x <= placed.length_m)
-    moments = [moment_at_Nm(placed, forces, x) for x in ordered]
+    line = MomentLine(placed, forces)
+    moments = [line.at(x) for x in ordered]
     torques = [torque_Nm * torque_fraction(placed, x, x) for x in ordered]
     return ordered, moments, torques

@@ -24,7 +24,7 @@ from workbench.core.checks import (
     MARGINAL_BAND, MaterialProps, SectionFigures, Settings, ShaftCheck, _verdict, check_shaft, section_figures, static_torque_Nm,
 )
 from workbench.core.drive import DriveLoads
-from workbench.core.layout import Placed, SideLoads, max_moment_Nm, point_loads, torque_fraction, GRAVITY_M_S2
+from workbench.core.layout import GRAVITY_M_S2, MomentLine, Placed, SideLoads, point_loads, torque_fraction
 from workbench.core.loads import Mount, side_load_N
 from workbench.core.sections import Section, section_for
 from workbench.core.shoulder_factors import shoulder_factors
@@ -69,6 +69,19 @@ class StepCheck:
         return f"{label}, {size}"
 
 
+def _keyseat_scale(geometry) -> float:
+    """The factor on the handbook keyseat Kt/Kts for this seat (1 for a standard seat in a solid
+    round or a sound tube wall); a seat the ligament rule refuses was refused when the spec was read."""
+    from dataclasses import replace
+
+    from workbench.core.keyseat_factors import KeyseatRefused, keyseat_scale
+
+    try:
+        return keyseat_scale(replace(geometry, keyed=True))[0]
+    except KeyseatRefused:
+        return 1.0
+
+
 def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float, list[str]]:
     """(feature words, Kt, Kts, Kf, Kfs, notes) of a step; the larger of each where raisers meet."""
     table = stress_raisers()
@@ -78,11 +91,12 @@ def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, flo
     d_m = section.size_factor_diameter_m
     if step.keyed and g.profile in ("round", "tube"):
         raiser = table["keyseat"]
-        rows.append(("keyseat", raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
+        scale = _keyseat_scale(g)  # non-standard seat or thin tube wall (workbench.core.keyseat_factors)
+        rows.append(("keyseat", raiser.Kt * scale, raiser.Kts * scale, raiser.notch_radius_per_d * d_m))
     if step.kind == "shoulder" and step.larger_m > step.diameter_m * (1.0 + 1e-9):
         factors = shoulder_factors(step.larger_m, step.diameter_m, step.fillet_m, body_round=step.larger_round)
         rows.append(("shoulder", factors.Kt, factors.Kts, step.fillet_m))
-        notes.extend(note if "circumscribed" in note else f"{step.label}: {note}" for note in factors.notes)
+        notes.extend(f"shoulder {note}" if note.startswith(("bending", "torsion")) else note for note in factors.notes)
     if step.feature_word in _WORDS:
         raiser = table[_WORDS[step.feature_word]]
         rows.append((raiser.feature, raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
@@ -114,7 +128,9 @@ def check_steps(
 ) -> ShaftCheck:
     """Every step checked; the ShaftCheck carries the governing step's figures and all the steps.
 
-    Area, torsion constant, mass and twist stay those of the bar as typed (``body_section``); the
+    Area, torsion constant, mass, twist and the pure-torsion peak shear stay those of the bar as typed
+    (``body_section``); the stresses of the check (bending, von Mises, Tresca) and every factor are the
+    governing step's; the
     static-check torque is :func:`workbench.core.checks.static_torque_Nm`. The side load of the
     driving element is 2 T K / D at each torque level; weights (m g) and the driven element's load
     are the same at both.
@@ -128,15 +144,21 @@ def check_steps(
     pull_static = side_load_N(static_T, mount.pitch_diameter_m, mount.load_factor)
     forces_design = point_loads(placed, SideLoads(pull_design, weight, driven))
     forces_static = point_loads(placed, SideLoads(pull_static, weight, driven))
+    line_design = MomentLine(placed, forces_design)
+    line_static = MomentLine(placed, forces_static)
     checks: list[StepCheck] = []
-    all_notes = list(placed.notes) + list(notes)
+    all_notes = list(notes)
+    assumptions = list(placed.notes)
+    sections: dict = {}  # journals, seats and shoulders of one size share one section
     for step in steps:
-        section = _section(step, body_section)
+        section = sections.get(step.geometry) if step.kind != "body" else body_section
+        if section is None:
+            section = sections[step.geometry] = _section(step, body_section)
         feature, kt, kts, kf, kfs, step_notes = _features(step, section, material.tensile_Pa)
         all_notes.extend(n for n in step_notes if n not in all_notes)  # each fact once
         share = torque_fraction(placed, step.check_from_m, step.check_to_m)
-        m_design = max_moment_Nm(placed, forces_design, step.check_from_m, step.check_to_m)
-        m_static = max_moment_Nm(placed, forces_static, step.check_from_m, step.check_to_m)
+        m_design = line_design.max_over(step.check_from_m, step.check_to_m)
+        m_static = line_static.max_over(step.check_from_m, step.check_to_m)
         t_design, t_static = share * loads.design_torque_Nm, share * static_T
         figures = section_figures(section, material, kf, kfs, t_design, t_static, m_design, m_static, settings)
         checks.append(StepCheck(step, section, m_design, m_static, t_design, t_static, feature, kt, kts, kf, kfs,
@@ -145,7 +167,7 @@ def check_steps(
     gov = checks[index]
     fig = gov.figures
     verdict, governing, why = _verdict(fig.static_sf, fig.fatigue_sf, base.twist_deg_per_m,
-                                       base.twist_limit_deg_per_m, gov.where, settings)
+                                       base.twist_limit_deg_per_m, gov.where, settings, base.buckling_safety_factor)
     key = _key(checks, placed, material, static_T, hub_material, settings)
     masses = [(placed.load_x_m, layout.element_mass_kg)]
     if layout.driven is not None:
@@ -153,9 +175,10 @@ def check_steps(
     stiffness = stiffness_figures(steps, placed, forces_design, masses, E_Pa, material.density_kg_m3,
                                   layout.bearing_type)
     if stiffness is not None:
-        all_notes.extend(n for n in stiffness.notes if n not in all_notes)
+        assumptions.extend(n for n in stiffness.notes if n not in assumptions)
     if key is not None:
-        all_notes.extend(n for n in key.notes if n not in all_notes)
+        assumptions.extend(n for n in key.notes if n.startswith("no hub length") and n not in assumptions)
+        all_notes.extend(n for n in key.notes if not n.startswith("no hub length") and n not in all_notes)
     verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
                                              stiffness, loads.shaft_speed_rpm)
     methods = dict(base.methods)
@@ -165,7 +188,6 @@ def check_steps(
         base,
         side_load_N=pull_design,
         bending_moment_Nm=gov.bending_moment_Nm,
-        max_shear_stress_Pa=fig.shear_Pa,
         bending_stress_Pa=fig.bending_Pa,
         von_mises_stress_Pa=fig.von_mises_Pa,
         tresca_stress_Pa=fig.tresca_Pa,
@@ -186,6 +208,7 @@ def check_steps(
         steps=tuple(checks),
         governing_step=index,
         notes=tuple(all_notes),
+        assumptions=tuple(assumptions),
         key=key,
         stiffness=stiffness,
         placed=placed,

@@ -14,6 +14,7 @@ How each enters the verdict (README, "How the checks decide"):
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass
 
@@ -101,7 +102,6 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
     """
     from workbench.core.beam import BeamInputError, beam_response
     from workbench.core.bearing_limits import slope_limit_rad
-    from workbench.core.critical_speed import first_critical_speed
 
     b1, b2 = placed.bearing_x_m
     if b2 is None:
@@ -117,7 +117,7 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
         notes.append(f"no bearing type: slope limit of a {kind} bearing taken ({slope_limit_rad(kind):g} rad)")
     rayleigh = dunkerley = governing = None
     try:
-        critical = first_critical_speed(segments, (b1, b2), [(x, m) for x, m in masses if m > 0])
+        critical = _critical(tuple(segments), (b1, b2), tuple((x, m) for x, m in masses if m > 0))
         rayleigh, dunkerley, governing = critical.rayleigh_rpm, critical.dunkerley_rpm, critical.governing_rpm
         notes.extend(critical.notes)
     except BeamInputError as err:
@@ -139,6 +139,15 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
         },
         notes=tuple(notes),
     )
+
+
+@functools.lru_cache(maxsize=256)
+def _critical(segments, supports, masses):
+    """First critical speed of one geometry (it does not depend on the loads or the speed, so a
+    workbench edit of the drive finds it again instead of solving it anew)."""
+    from workbench.core.critical_speed import first_critical_speed
+
+    return first_critical_speed(segments, supports, masses)
 
 
 @dataclass(frozen=True)

@@ -4,6 +4,9 @@ Equal strength = the same peak torsional shear per unit torque (plain sections, 
 equal stiffness = the same torsion constant J. Both scale exactly with size for a fixed shape
 (tau/T ~ 1/s^3, J ~ s^4), so each size follows in closed form from the unit-size section.
 Features such as keyseats and shoulders are not part of the equivalence: the full check judges them.
+The figures hold for the BODY step only (the bar's own section, away from the journals and seat):
+where the bar is turned to the existing journals and keyed seat it is no stronger there than the
+shaft as found, and each shoulder adds a stress raiser (workbench.core.steps, step_checks).
 """
 
 from __future__ import annotations
@@ -13,6 +16,7 @@ from dataclasses import dataclass
 from workbench.core.geometry import ShaftGeometry
 from workbench.core.sections import Section, section_for
 
+HOLDS_FOR = "body"  # the step the equivalent-size figures hold for
 FLAT_ASPECT = 2.0  # width / thickness of the flat bar offered (common stock proportion)
 TUBE_BORE_RATIO = 0.75  # inside / outside diameter of the tube offered
 
@@ -92,6 +96,9 @@ def fit_facts(existing: ShaftGeometry, candidate: ShaftGeometry | None = None) -
     """Plain-language fit facts for a fitter replacing ``existing`` (with ``candidate`` if given)."""
     d_mm = existing.size_m * 1000.0
     facts = [
+        "Equivalent sizes hold for the body (the bar's own section) only: turned to the existing journals "
+        "and keyed seat, a bar is no stronger there than the shaft as found, and each shoulder adds a stress "
+        "raiser. The check (shaftbench check --candidate ...) checks every step.",
         "A square, hex or flat bar turned to a round journal at the bearing seats is only as strong "
         "and stiff there as that journal: check the journal as a round shaft of its own diameter.",
         "The largest journal a bar can give is its inscribed circle: the side of a square, the size "

@@ -73,7 +73,7 @@ def _row(step: Mapping, cls: str, reason: str, source: str) -> dict:
         "min_in": _inch(zone.min_m),
         "x_start_m": x0,
         "x_end_m": x1,
-        "length_m": None if x0 is None or x1 is None else round(float(x1) - float(x0), 12),
+        "length_m": None if x0 is None or x1 is None or float(x1) <= float(x0) else round(float(x1) - float(x0), 12),
         "fillet_min_m": None,
         "fillet_max_m": None,
         "finish_Ra_um": fit_advice.finish_Ra_um(zone.name, step["kind"]),
@@ -89,7 +89,8 @@ def turning_sheet(steps: Sequence[Mapping], options: TurningOptions, *, key: Map
 
     ``steps``: mappings with ``kind``, ``diameter_m`` and optionally ``label``, ``x_start_m``,
     ``x_end_m``, ``fillet_m``, ``keyed`` (the shaft's steps, or :func:`uniform_steps`).
-    ``key``: ``{"width_m", "depth_m"}`` of the keyseat (shaft depth t1) when the seat is keyed.
+    ``key``: ``{"width_m", "depth_m"[, "length_m"]}`` of the keyseat (shaft depth t1; key length)
+    when the seat is keyed.
     """
     b = options.bearing
     is_roller = roller if roller is not None else bool(b and "roller" in b.kind)
@@ -108,8 +109,7 @@ def turning_sheet(steps: Sequence[Mapping], options: TurningOptions, *, key: Map
             row = _row(step, cls, reason, source)
             if b is not None:
                 if abs(b.bore_m - d) < 1e-9:
-                    if row["length_m"] is None:
-                        row["length_m"] = b.width_m
+                    row["length_m"] = b.width_m  # the journal is as long as the bearing is wide
                     row["fit"] = fit_advice.bearing_fit(b.bore_m, b.bore_upper_deviation_m, b.bore_lower_deviation_m, row["class"])
                 else:
                     notes.append(f"bearing {b.designation} has a {b.bore_m * 1000:g} mm bore; the journal is "
@@ -133,6 +133,9 @@ def turning_sheet(steps: Sequence[Mapping], options: TurningOptions, *, key: Map
                           "kind": fit_kind(max_c, min_c), "basis": "hub bored H7 (ISO 286)"}
         else:
             row = _row(step, BODY_CLASS, "free size: turned to clean up or left as drawn bar", "common practice (P)")
+            if kind == "shoulder":
+                row["length_m"] = None  # a shoulder is a place on the axis, not a length
+                row["larger_diameter_m"] = step.get("larger_diameter_m")
         fillet = float(step.get("fillet_m") or 0.0)
         if kind == "shoulder" or fillet > 0.0:
             row["fillet_min_m"] = fillet
@@ -151,7 +154,7 @@ def turning_sheet(steps: Sequence[Mapping], options: TurningOptions, *, key: Map
         length = None
         if seat.get("x_start_m") is not None and seat.get("x_end_m") is not None:
             length = float(seat["x_end_m"]) - float(seat["x_start_m"])
-        length = options.hub_length_m or length
+        length = key.get("length_m") or options.hub_length_m or length or None  # 0 = not known
         keyseat = fit_advice.keyseat(float(seat["diameter_m"]), float(key["width_m"]), float(key["depth_m"]),
                                      key_standard, options.key_fit, length)
     bearing = None

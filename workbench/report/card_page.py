@@ -247,7 +247,7 @@ html { color: #000; background: #fff; }
 body { margin: 0; font-family: "DejaVu Sans", "Liberation Sans", Arial, Helvetica, sans-serif;
        font-size: 9.5pt; line-height: 1.15; }
 .card { max-width: 188mm; margin: 0 auto; }
-.card + .card, .own-page { break-before: page; page-break-before: always; }
+.card + .card, .job + .job, .own-page { break-before: page; page-break-before: always; }
 h1 { font-size: 13pt; margin: 0 0 1.5mm; display: flex; justify-content: space-between; gap: 4mm; }
 h1 .job { white-space: nowrap; }
 h2 { font-size: 10pt; margin: 0; position: absolute; top: -0.65em; left: 2mm; padding: 0 1mm;
@@ -308,7 +308,8 @@ def _card_html(job: CardJob) -> str:
         flush_half()
         parts.append(box)
     flush_half()
-    return '<div class="card">' + "".join(parts) + "</div>" + "".join(own_pages)
+    # one block per job, so the next job's card starts a new page after this one's own pages too
+    return '<div class="job"><div class="card">' + "".join(parts) + "</div>" + "".join(own_pages) + "</div>"
 
 
 def card_page(jobs: Sequence[CardJob], *, paper: str | None = None) -> str:
@@ -328,3 +329,13 @@ def card_page(jobs: Sequence[CardJob], *, paper: str | None = None) -> str:
         f"<title>{esc(title)}</title><style>{_page_css(paper)}</style></head>"
         f"<body>{body}</body></html>\n"
     )
+
+
+def _register_turning_sheets() -> None:
+    """The turning sheets: each shaft's on a page of its own after the card (report/turning_sheet.py)."""
+    from workbench.report.turning_sheet import register_card_sections
+
+    register_card_sections()
+
+
+_register_turning_sheets()

@@ -68,12 +68,30 @@ def _shafts_table(result: dict, system: str) -> Table:
     table = Table(show_edge=False, expand=False, pad_edge=False)
     table.add_column("", style="dim", no_wrap=True)
     for shaft in result["shafts"]:
-        table.add_column(Text(f"{shaft['role']}: {shaft['spec']}"), overflow="fold")
+        table.add_column(Text(f"{shaft['role']}: {spec_label(shaft)}"), overflow="fold")
     for label, getter in ROWS:
         table.add_row(label, *(Text(getter(shaft, system)) for shaft in result["shafts"]))
+    if any(shaft.get("buckling_safety_factor") is not None for shaft in result["shafts"]):
+        table.add_row("buckling SF (thin tube)", *(Text(fmt.factor(shaft.get("buckling_safety_factor"))
+                                                       if shaft.get("buckling_safety_factor") is not None else "—")
+                                                  for shaft in result["shafts"]))
     table.add_row("verdict", *(verdict_text(shaft["verdict"]) for shaft in result["shafts"]))
     table.add_row("why", *(Text(shaft["why"]) for shaft in result["shafts"]))
     return table
+
+
+def spec_label(shaft: dict) -> str:
+    """A shaft's spec as shown: a hex size is said to be across flats."""
+    spec = shaft["spec"]
+    return f"{spec} (across flats)" if shaft.get("profile") == "hex" and "across" not in spec else spec
+
+
+def warnings_text(result: dict) -> Text | None:
+    """The job's warnings (assumptions and doubtful readings), one line each, for beside the verdict."""
+    lines = result.get("warnings") or []
+    if not lines:
+        return None
+    return Text("\n".join(f"⚠ {line}" for line in lines), style="yellow")
 
 
 def steps_panel(result: dict, system: str) -> Panel | None:
@@ -123,6 +141,12 @@ def render_check(result: dict, system: str = "metric") -> Group:
             f"stiffness {comparison['stiffness_ratio']:.2f}x, mass {comparison['mass_ratio']:.2f}x"
         )
     parts.append(summary)
+    warned = warnings_text(result)
+    if warned is not None:
+        parts.append(warned)
+    from workbench.report.steps_report import steps_panels
+
+    parts.extend(steps_panels(result, system))
     for shaft in result["shafts"]:
         solved = shaft.get("keyseat_solver")
         if solved:
@@ -133,6 +157,11 @@ def render_check(result: dict, system: str = "metric") -> Group:
             ))
         for note in shaft.get("notes", []):
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
+    from workbench.report.turning_sheet import render_turning
+
+    sheets = render_turning(result, system)
+    if sheets is not None:
+        parts.append(sheets)
     parts.append(methods_panel(result))
     parts.append(cautions_panel(result["cautions"]))
     return Group(*parts)
@@ -155,13 +184,16 @@ def methods_panel(result: dict) -> Panel:
     settings = result["settings"]
     lines.append("verdict: ", style="dim")
     lines.append(f"required safety factor {settings['required_sf']:g}; reliability {settings['reliability']:g}; "
-                 "marginal = within 10 % above the required factor, or twist over its limit")
+                 "marginal = within 10 % above the required factor, or twist over its limit; key factors count like "
+                 "the others; a bearing slope over its limit or running at 75 % of the first critical speed is "
+                 "marginal, over twice the slope limit or at 90 % fails")
     return Panel(lines, title="Methods and sources", title_align="left", border_style="dim")
 
 
 def render_substitution(result: dict, system: str = "metric") -> Group:
     """Equivalent bars for the shaft as found, with their ratios and the fit facts."""
-    table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material)"))
+    table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material; "
+                             "figures for the body step)"))
     for name in ("profile", "basis", "size", "strength", "stiffness", "mass", "next stock up"):
         table.add_column(name)
     for row in result["equivalents"]:
@@ -183,9 +215,10 @@ def render_stock(result: dict, system: str = "metric") -> Group:
         journal = fmt.length(row["largest_journal_m"], system)
         if row["gives_existing_journal"] is False:
             journal += " *"
+        governing = row["governing"] + (f" at {row['governing_step_label']}" if row.get("governing_step_label") else "")
         table.add_row(
             Text(row["label"]), row["material"], verdict_text(row["verdict"]),
-            fmt.factor(row["min_safety_factor"]), row["governing"], fmt.mass_per_length(row["mass_kg_per_m"], system),
+            fmt.factor(row["min_safety_factor"]), Text(governing), fmt.mass_per_length(row["mass_kg_per_m"], system),
             journal,
         )
     lines = Text()

@@ -346,10 +346,14 @@ def job_card_for_record(record: Any) -> RenderableType:
     from workbench.report.card_page import CardJob
 
     job = CardJob.from_record(record)
-    return job_card(
+    card = job_card(
         job.result, asset=job.asset, location=job.location, by=job.by, note=job.note, fitted=job.fitted,
         job_id=job.job_id, created_at=job.created_at, program_version=job.program_version, extra=job.extra,
     )
+    from workbench.report.turning_sheet import render_turning
+
+    sheets = render_turning(job.result) if job.result.get("shafts") else None
+    return card if sheets is None else Group(card, sheets)  # the turning sheet after the card
 
 
 def card_page_for_records(records: list[Any], *, paper: str | None = None) -> str:

@@ -1,29 +1,47 @@
-"""The job log: every checked job in one SQLite file (stdlib ``sqlite3``).
+"""The job log's engine-neutral API: every checked job, its inputs as typed and its result.
 
 A job is the inputs exactly as typed plus the result of ``workbench.job.evaluate_inputs`` on them,
-with who/where/what notes. Every save is one durable transaction (WAL, ``synchronous=FULL``,
-``BEGIN IMMEDIATE``); a file that is not ours, is damaged, or comes from a newer Shaftbench is refused
-with a one-line message and left exactly as it was. Text filters use a trigram full-text index
-(schema v3, SQLite FTS5) where this SQLite has one, else LIKE over every row; both give the same
-answers.
+with who/where/what notes. ``JobLog.open`` picks the engine; the operations below are the same for
+every engine and are written once here, in SQL that every engine runs (``?`` parameters). Each
+engine (``sqlite_log.py``) supplies the connection, its transactions and error messages, and how it
+answers text filters and counts. Every save is one durable transaction; a store that is not ours,
+is damaged, or comes from a newer Shaftbench is refused with a one-line message and left exactly as
+it was.
 """
 
 from __future__ import annotations
 
 import json
-import math
 import os
-import sqlite3
-import time
+import uuid
 from collections.abc import Iterable, Iterator, Mapping
-from contextlib import contextmanager
-from dataclasses import dataclass, field
-from datetime import date, datetime, timedelta, timezone
+from contextlib import AbstractContextManager
+from datetime import date, datetime
 from pathlib import Path
 from typing import Any
 
-from workbench.store import migrations, schema
-from workbench.store.paths import create_private_file, default_log_path, make_private_dirs
+from workbench.store import schema
+from workbench.store.compare import compare_results
+from workbench.store.paths import default_log_path, log_target
+from workbench.store.records import (
+    META_FIELDS,
+    VERDICTS,
+    Difference,
+    JobRecord,
+    LogError,
+    Reopened,
+)
+from workbench.store.values import (
+    INSERT_COLUMNS,
+    bound,
+    content_uid,
+    iso_utc,
+    job_row,
+    now_utc,
+    parse_uid,
+    record_from_row,
+    text_value,
+)
 
 __all__ = [
     "Difference",
@@ -35,271 +53,11 @@ __all__ = [
     "default_log_path",
 ]
 
-VERDICTS = ("pass", "marginal", "fail")
-BUSY_TIMEOUT_S = 10.0
-SQLITE_MAGIC = b"SQLite format 3\x00"
-META_FIELDS = ("asset", "location", "by", "note", "fitted")
-
-
-class LogError(Exception):
-    """A problem with the job log that a person can act on; ``str(err)`` is one line."""
-
-
-@dataclass(frozen=True)
-class JobRecord:
-    """One job as stored: inputs as typed, the result computed then, and the notes around it."""
-
-    id: int
-    created_at: str
-    """UTC ISO 8601 time the job was saved."""
-    updated_at: str
-    """UTC ISO 8601 time of the last change (notes, delete, restore)."""
-    program_version: str
-    """Shaftbench version that computed ``result``."""
-    asset: str
-    location: str
-    by: str
-    note: str
-    verdict: str
-    """``pass``, ``marginal``, ``fail`` or empty when the result had none."""
-    material: str
-    """Materials named in the inputs and result, comma separated (what text search sees)."""
-    fitted: str
-    """Which candidate spec was actually fitted (free text, empty if not recorded)."""
-    deleted_at: str | None
-    """UTC ISO time the job was moved to the bin, or None."""
-    inputs: dict[str, str] = field(repr=False)
-    result: dict[str, Any] = field(repr=False)
-
-    @property
-    def deleted(self) -> bool:
-        """True if the job is in the bin (soft deleted)."""
-        return self.deleted_at is not None
-
-    def as_dict(self) -> dict[str, Any]:
-        """The record as a JSON-ready dict (the export and ``--json`` shape)."""
-        return {
-            "id": self.id,
-            "created_at": self.created_at,
-            "updated_at": self.updated_at,
-            "program_version": self.program_version,
-            "asset": self.asset,
-            "location": self.location,
-            "by": self.by,
-            "note": self.note,
-            "verdict": self.verdict,
-            "material": self.material,
-            "fitted": self.fitted,
-            "deleted_at": self.deleted_at,
-            "inputs": self.inputs,
-            "result": self.result,
-        }
-
-
-@dataclass(frozen=True)
-class Difference:
-    """One figure that differs between the stored result and today's."""
-
-    key: str
-    """Where the figure sits, e.g. ``candidate.fatigue_safety_factor`` or ``verdict``."""
-    stored: Any
-    now: Any
-
-    def __str__(self) -> str:
-        return f"{self.key}: stored {_show(self.stored)}, now {_show(self.now)}"
-
-
-@dataclass(frozen=True)
-class Reopened:
-    """A stored job recomputed with today's program."""
-
-    record: JobRecord
-    new_result: dict[str, Any] | None
-    """Today's result, or None if today's program rejects the stored inputs (see ``error``)."""
-    differences: tuple[Difference, ...]
-    error: str = ""
-    """Today's input error message when ``new_result`` is None."""
-
-    @property
-    def changed(self) -> bool:
-        """True if today's result differs from the stored one (or cannot be computed)."""
-        return bool(self.differences) or self.new_result is None
-
-
-# --------------------------------------------------------------------------------------------
-# comparing results
-
-DRIVE_FIGURES = ("running_torque_Nm", "design_torque_Nm", "peak_torque_Nm", "shaft_speed_rpm")
-MOUNT_FIGURES = ("side_load_N", "bending_moment_Nm")
-SHAFT_FIGURES = (
-    "verdict",
-    "max_shear_stress_Pa",
-    "bending_stress_Pa",
-    "von_mises_stress_Pa",
-    "twist_deg_per_m",
-    "endurance_limit_Pa",
-    "static_safety_factor",
-    "shear_yield_safety_factor",
-    "fatigue_safety_factor",
+COLUMNS = ", ".join(schema.JOB_COLUMNS)
+INSERT = (
+    f"INSERT INTO jobs ({', '.join(INSERT_COLUMNS)}) "
+    f"VALUES ({', '.join('?' * len(INSERT_COLUMNS))})"
 )
-
-
-def _show(value: Any) -> str:
-    if value is None:
-        return "-"
-    if isinstance(value, float):
-        return f"{value:.6g}"
-    return str(value)
-
-
-def _same(a: Any, b: Any, rel_tol: float) -> bool:
-    numbers = (int, float)
-    if isinstance(a, numbers) and isinstance(b, numbers) and not isinstance(a, bool) and not isinstance(b, bool):
-        if math.isnan(a) or math.isnan(b):
-            return math.isnan(a) and math.isnan(b)
-        return math.isclose(a, b, rel_tol=rel_tol, abs_tol=1e-12)
-    return a == b
-
-
-def _shafts_by_role(result: Mapping[str, Any]) -> dict[str, Mapping[str, Any]]:
-    shafts = result.get("shafts") or []
-    return {str(s.get("role", i)): s for i, s in enumerate(shafts) if isinstance(s, Mapping)}
-
-
-def compare_results(
-    stored: Mapping[str, Any], now: Mapping[str, Any], rel_tol: float = 1e-3
-) -> tuple[Difference, ...]:
-    """The verdicts and key figures that differ between two results (numbers by ``rel_tol``).
-
-    Compared: the overall verdict, the drive torques and shaft speed, the side load and bending
-    moment, and for each shaft (matched by role) its verdict, stresses, twist, endurance limit and
-    safety factors. The default tolerance of 0.1 % is below what any report shows.
-    """
-    found: list[Difference] = []
-
-    def check(key: str, a: Any, b: Any) -> None:
-        if not _same(a, b, rel_tol):
-            found.append(Difference(key, a, b))
-
-    check("verdict", stored.get("verdict"), now.get("verdict"))
-    for group, names in (("drive", DRIVE_FIGURES), ("mount", MOUNT_FIGURES)):
-        old = stored.get(group) or {}
-        new = now.get(group) or {}
-        for name in names:
-            check(f"{group}.{name}", old.get(name), new.get(name))
-    old_shafts, new_shafts = _shafts_by_role(stored), _shafts_by_role(now)
-    for role in list(old_shafts) + [r for r in new_shafts if r not in old_shafts]:
-        old, new = old_shafts.get(role), new_shafts.get(role)
-        if old is None or new is None:
-            check(f"{role}.spec", old and old.get("spec"), new and new.get("spec"))
-            continue
-        for name in SHAFT_FIGURES:
-            check(f"{role}.{name}", old.get(name), new.get(name))
-    return tuple(found)
-
-
-# --------------------------------------------------------------------------------------------
-# small helpers
-
-
-def _now() -> str:
-    return datetime.now(timezone.utc).isoformat(timespec="microseconds")
-
-
-def _iso_utc(value: str, what: str) -> str:
-    """Normalise an ISO time string to the stored form (UTC, microseconds)."""
-    try:
-        moment = datetime.fromisoformat(str(value).replace("Z", "+00:00"))
-    except ValueError:
-        raise LogError(f"{what}: expected an ISO date-time like 2025-03-01T08:30:00Z, got {value!r}") from None
-    if moment.tzinfo is None:
-        moment = moment.replace(tzinfo=timezone.utc)
-    return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
-
-
-def _bound(value: date | datetime | str | None, what: str, *, end: bool) -> str | None:
-    """A ``since``/``until`` filter as a stored-form time; dates are whole UTC days (until inclusive)."""
-    if value is None or value == "":
-        return None
-    if isinstance(value, str):
-        text = value.strip()
-        try:
-            value = date.fromisoformat(text) if len(text) == 10 else datetime.fromisoformat(text.replace("Z", "+00:00"))
-        except ValueError:
-            raise LogError(f"{what}: expected a date like 2025-03-01 (UTC), got {text!r}") from None
-    if isinstance(value, datetime):
-        moment = value if value.tzinfo else value.replace(tzinfo=timezone.utc)
-        return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
-    if isinstance(value, date):
-        day = value + timedelta(days=1) if end else value
-        return datetime(day.year, day.month, day.day, tzinfo=timezone.utc).isoformat(timespec="microseconds")
-    raise LogError(f"{what}: expected a date, got {value!r}")
-
-
-def _text(value: Any, what: str) -> str:
-    if value is None:
-        return ""
-    if not isinstance(value, str):
-        raise LogError(f"{what}: expected text, got {type(value).__name__}")
-    return value
-
-
-def _inputs_json(inputs: Any) -> str:
-    if not isinstance(inputs, Mapping) or not all(
-        isinstance(k, str) and isinstance(v, str) for k, v in inputs.items()
-    ):
-        raise LogError("inputs: expected a mapping of field name to the text as typed")
-    return json.dumps(dict(inputs), ensure_ascii=False, sort_keys=True)
-
-
-def _result_json(result: Any) -> str:
-    if not isinstance(result, Mapping):
-        raise LogError("result: expected the result mapping from evaluate_inputs")
-    try:
-        return json.dumps(result, ensure_ascii=False, sort_keys=True)
-    except (TypeError, ValueError) as err:
-        raise LogError(f"result: not JSON-ready ({err})") from None
-
-
-def _verdict_of(result: Mapping[str, Any]) -> str:
-    verdict = result.get("verdict")
-    return verdict if isinstance(verdict, str) else ""
-
-
-def material_of(inputs: Mapping[str, str], result: Mapping[str, Any]) -> str:
-    """The materials a job names (input keys and the result's material names), comma separated."""
-    names: list[str] = []
-    for value in (inputs.get("material"), inputs.get("candidate_material")):
-        if value:
-            names.append(value.strip())
-    for shaft in result.get("shafts") or []:
-        if isinstance(shaft, Mapping):
-            for key in ("material", "material_name"):
-                value = shaft.get(key)
-                if isinstance(value, str) and value.strip():
-                    names.append(value.strip())
-    unique = dict.fromkeys(n for n in names if n)
-    return ", ".join(unique)
-
-
-INDEX_LOOKUP_LIMIT = 2000
-"""Up to this many index matches, a text filter looks the matched jobs up by id; above it, scanning
-the covering listing index in order is cheaper (measured at 100,000 jobs, bench/bench_log.py)."""
-
-
-@dataclass(frozen=True)
-class _TextPlan:
-    """How a text filter will be answered."""
-
-    words: list[str]
-    """Case-folded words; each must appear in search_text."""
-    expression: str | None
-    """FTS5 query for the words the trigram index can find, or None (LIKE only)."""
-    matched: int | None
-    """How many jobs, bin included, the index matches, counted up to INDEX_LOOKUP_LIMIT + 1
-    (None without the index)."""
-    needs_like: bool
-    """True if some word is not in ``expression`` (shorter than three characters) - or no index."""
 
 
 def _verdicts(verdict: str | Iterable[str] | None) -> str | tuple[str, ...] | None:
@@ -307,164 +65,34 @@ def _verdicts(verdict: str | Iterable[str] | None) -> str | tuple[str, ...] | No
     return verdict if verdict is None or isinstance(verdict, str) else tuple(verdict)
 
 
-def _match_phrase(word: str) -> str:
-    """A word as an FTS5 string: between double quotes, inner quotes doubled, so that ``*``, ``-``,
-    ``AND``, ``NEAR``, ``:`` and parentheses are plain characters (SQLite FTS5 query syntax, 3.1)."""
-    return '"' + word.replace('"', '""') + '"'
-
-
-def _like_pattern(word: str) -> str:
-    escaped = word.replace("\\", "\\\\").replace("%", "\\%").replace("_", "\\_")
-    return f"%{escaped}%"
-
-
-def _check_header(path: Path) -> None:
-    """Refuse a file that is not an SQLite database or is shorter than its header says."""
-    try:
-        size = path.stat().st_size
-        if size == 0:
-            return
-        with open(path, "rb") as handle:
-            head = handle.read(100)
-    except PermissionError:
-        raise LogError(f"cannot read the job log {path}: permission denied") from None
-    except IsADirectoryError:
-        raise LogError(f"{path} is a folder, not a job log file") from None
-    if len(head) < 100 or not head.startswith(SQLITE_MAGIC):
-        raise LogError(f"{path} is not a Shaftbench job log (not an SQLite file); it was left unchanged")
-    page_size = int.from_bytes(head[16:18], "big")
-    page_size = 65536 if page_size == 1 else page_size
-    page_count = int.from_bytes(head[28:32], "big")
-    header_size_valid = head[24:28] == head[92:96]
-    if size % page_size or (header_size_valid and page_count and size < page_size * page_count):
-        raise LogError(
-            f"the job log {path} is damaged (cut short: {size} of {page_size * page_count} bytes); "
-            "it was left unchanged - restore it from a backup"
-        )
-
-
-def _friendly(err: sqlite3.Error, path: Path) -> LogError:
-    text = str(err)
-    low = text.lower()
-    if "locked" in low or "busy" in low:
-        return LogError(f"the job log {path} is busy (another program holds it); try again")
-    if "readonly" in low or "read-only" in low:
-        return LogError(f"the job log {path} is read-only; use --log to choose a writable file")
-    if "unable to open" in low:
-        return LogError(f"cannot open the job log {path} (is the folder writable?)")
-    if "not a database" in low or "malformed" in low or "corrupt" in low:
-        return LogError(f"the job log {path} is damaged ({text}); it was left unchanged")
-    if "disk" in low and "full" in low:
-        return LogError(f"the disk holding the job log {path} is full; nothing was saved")
-    return LogError(f"job log {path}: {text}")
-
-
-# --------------------------------------------------------------------------------------------
-# the log
-
-
 class JobLog:
-    """An open job log file. Not shared between threads: open one per thread.
+    """An open job log. Not shared between threads: open one per thread.
 
     >>> with JobLog.open(path) as log:        # doctest: +SKIP
     ...     job_id = log.save(inputs, result, asset="CV-07")
     """
 
-    def __init__(self, conn: sqlite3.Connection, path: Path, *, text_index: bool = False) -> None:
-        self._conn = conn
-        self.path = path
-        self.text_index = text_index
-        """True if text filters use the trigram index (schema v3 with FTS5); False: LIKE over every row."""
-        self._match_count_cache: tuple[Any, int] | None = None
-        self._count_cache: tuple[Any, int] | None = None
+    path: Path
 
-    # -- opening and closing -------------------------------------------------------------
+    # -- opening and closing (the engine's) -----------------------------------------------------
 
     @classmethod
     def open(cls, path: str | os.PathLike[str] | None = None, *, create: bool = True) -> JobLog:
-        """Open (and create or migrate, if needed) the job log at ``path`` or the default path."""
-        path = Path(path).expanduser() if path else default_log_path()
-        created = False
-        if path.exists():
-            _check_header(path)
-            if not os.access(path, os.R_OK | os.W_OK) or not os.access(path.parent, os.W_OK | os.X_OK):
-                raise LogError(f"the job log {path} is read-only; use --log to choose a writable file")
-        elif not create:
-            raise LogError(f"there is no job log at {path}")
-        else:
-            try:
-                make_private_dirs(path.parent)
-                created = create_private_file(path)
-            except PermissionError:
-                raise LogError(f"cannot create the job log {path}: the folder is read-only") from None
-            except OSError as err:
-                raise LogError(f"cannot create the job log {path}: {err.strerror or err}") from None
-        try:
-            conn = sqlite3.connect(
-                str(path), timeout=BUSY_TIMEOUT_S, isolation_level=None, check_same_thread=True
-            )
-        except sqlite3.Error as err:
-            raise _friendly(err, path) from None
-        try:
-            text_index = cls._prepare(conn, path)
-        except BaseException as err:
-            conn.close()
-            if created and path.exists() and path.stat().st_size == 0:
-                path.unlink()
-            if isinstance(err, sqlite3.Error):
-                raise _friendly(err, path) from None
-            raise
-        return cls(conn, path, text_index=text_index)
+        """Open (and create or migrate, if needed) the job log at ``path`` or the default log.
 
-    @staticmethod
-    def _prepare(conn: sqlite3.Connection, path: Path) -> bool:
-        # Read-only probes first: nothing is written until the file is known to be ours.
-        version = migrations.user_version(conn)
-        app_id = int(conn.execute("PRAGMA application_id").fetchone()[0])
-        has_tables = conn.execute("SELECT count(*) FROM sqlite_master").fetchone()[0] > 0
-        if app_id not in (0, schema.APPLICATION_ID) or (app_id == 0 and (version or has_tables)):
-            raise LogError(f"{path} is an SQLite file but not a Shaftbench job log; it was left unchanged")
-        if version > schema.LATEST_VERSION:
-            raise LogError(
-                f"the job log {path} was written by a newer Shaftbench (log format v{version}, this "
-                f"version reads up to v{schema.LATEST_VERSION}); upgrade Shaftbench - the file was left unchanged"
-            )
-        conn.execute(f"PRAGMA busy_timeout = {int(BUSY_TIMEOUT_S * 1000)}")
-        deadline = time.monotonic() + BUSY_TIMEOUT_S
-        while True:  # switching to WAL needs a moment alone with the file
-            try:
-                mode = conn.execute("PRAGMA journal_mode = WAL").fetchone()[0]
-                break
-            except sqlite3.OperationalError as err:
-                if "locked" not in str(err).lower() or time.monotonic() > deadline:
-                    raise
-                time.sleep(0.01)
-        if str(mode).lower() != "wal":
-            raise LogError(f"the job log {path} cannot use write-ahead logging (journal mode {mode})")
-        conn.execute("PRAGMA synchronous = FULL")
-        if 0 < version < schema.LATEST_VERSION:
-            JobLog._backup_before_migrating(conn, path, version)
-        migrations.migrate(conn)
-        return migrations.ensure_text_index(conn)
+        ``path`` (or ``$SHAFTBENCH_LOG``) is a file, or a ``postgresql://`` URL of a shared log."""
+        target = log_target(path) if path is None or isinstance(path, str) else Path(path)
+        if isinstance(target, str):
+            from workbench.store.pg_log import PgJobLog
 
-    @staticmethod
-    def _backup_before_migrating(conn: sqlite3.Connection, path: Path, version: int) -> None:
-        """Copy an older log aside (``<name>.v<N>.bak``, mode 0600) before changing its format."""
-        backup_path = path.with_name(f"{path.name}.v{version}.bak")
-        if backup_path.exists():
-            return
-        create_private_file(backup_path)
-        target = sqlite3.connect(str(backup_path))
-        try:
-            conn.backup(target)
-        finally:
-            target.close()
+            return PgJobLog.open_url(target, create=create)
+        from workbench.store.sqlite_log import SqliteJobLog
+
+        return SqliteJobLog.open_file(target, create=create)
 
     def close(self) -> None:
-        """Close the file (safe to call twice)."""
-        if self._conn is not None:
-            self._conn.close()
-            self._conn = None  # type: ignore[assignment]
+        """Close the log (safe to call twice)."""
+        raise NotImplementedError
 
     def __enter__(self) -> JobLog:
         return self
@@ -472,35 +100,44 @@ class JobLog:
     def __exit__(self, *exc: object) -> None:
         self.close()
 
-    @property
-    def conn(self) -> sqlite3.Connection:
-        if self._conn is None:
-            raise LogError("the job log is closed")
-        return self._conn
+    # -- what each engine provides -------------------------------------------------------------
 
-    @contextmanager
-    def _write(self) -> Iterator[sqlite3.Connection]:
-        """One write transaction: all of it is saved (durably) or none of it."""
-        conn = self.conn
-        try:
-            conn.execute("BEGIN IMMEDIATE")
-        except sqlite3.Error as err:
-            raise _friendly(err, self.path) from None
-        try:
-            yield conn
-            conn.execute("COMMIT")
-        except BaseException as err:
-            if conn.in_transaction:
-                conn.execute("ROLLBACK")
-            if isinstance(err, sqlite3.Error):
-                raise _friendly(err, self.path) from None
-            raise
+    def _write(self) -> AbstractContextManager[Any]:
+        """One write transaction: all of it is saved (durably) or none of it; yields an object
+        whose ``execute(sql, params)`` runs SQL with ``?`` parameters."""
+        raise NotImplementedError
 
     def _read(self, sql: str, params: Iterable[Any] = ()) -> list[tuple[Any, ...]]:
-        try:
-            return self.conn.execute(sql, tuple(params)).fetchall()
-        except sqlite3.Error as err:
-            raise _friendly(err, self.path) from None
+        raise NotImplementedError
+
+    def _insert(self, conn: Any, row: tuple[Any, ...]) -> int:
+        """Insert one job row (INSERT_COLUMNS) inside ``_write``; returns its id."""
+        raise NotImplementedError
+
+    def _uid_param(self, uid: uuid.UUID) -> Any:
+        """A uid as this engine stores it."""
+        raise NotImplementedError
+
+    def _stream(self, sql: str) -> Iterator[tuple[Any, ...]]:
+        """The rows of a query, fetched a batch at a time."""
+        raise NotImplementedError
+
+    def _page_ids(
+        self, text: str, filters: tuple[Any, ...], clauses: list[str], params: list[Any],
+        limit: int, offset: int,
+    ) -> list[int]:
+        """Ids of one page of jobs, newest first, that pass the clauses and hold every word."""
+        raise NotImplementedError
+
+    def _count_jobs(self, text: str, filters: tuple[Any, ...]) -> int:
+        raise NotImplementedError
+
+    def forget_counts(self) -> None:
+        """Drop any remembered counts (for timing; any change to the log makes them stale anyway)."""
+
+    def integrity_ok(self) -> bool:
+        """True if the engine's own consistency check finds nothing wrong."""
+        raise NotImplementedError
 
     # -- writing -----------------------------------------------------------------------------
 
@@ -514,54 +151,23 @@ class JobLog:
         by: str = "",
         note: str = "",
         fitted: str = "",
+        uid: str | uuid.UUID | None = None,
+        bench: str | None = None,
     ) -> int:
-        """Store one job durably; returns its id. ``inputs`` are kept exactly as typed."""
-        row = self._row(
-            inputs, result, dict(asset=asset, location=location, by=by, note=note, fitted=fitted)
+        """Store one job durably; returns its id. ``inputs`` are kept exactly as typed.
+
+        ``uid`` (made by the caller, e.g. ``uuid.uuid4()``) makes a resend safe: a job with this uid
+        already in the log is not stored again, and its id is returned. ``bench`` defaults to
+        ``values.bench_name()``."""
+        row = job_row(
+            inputs, result, dict(asset=asset, location=location, by=by, note=note, fitted=fitted),
+            uid=parse_uid(uid) if uid is not None else None, bench=bench,
         )
         with self._write() as conn:
-            cursor = conn.execute(_INSERT, row)
-        return int(cursor.lastrowid)
-
-    def _row(
-        self,
-        inputs: Any,
-        result: Any,
-        meta: Mapping[str, Any],
-        *,
-        created_at: str | None = None,
-        updated_at: str | None = None,
-        program_version: str | None = None,
-        deleted_at: str | None = None,
-    ) -> tuple[Any, ...]:
-        inputs_json, result_json = _inputs_json(inputs), _result_json(result)
-        text = {name: _text(meta.get(name), name) for name in META_FIELDS}
-        if program_version is None:
-            program = result.get("program")
-            program_version = program.get("version") if isinstance(program, Mapping) else None
-            if not isinstance(program_version, str):
-                from workbench import __version__
-
-                program_version = __version__
-        now = _now()
-        created = created_at or now
-        material = material_of(inputs, result)
-        return (
-            created,
-            updated_at or created,
-            program_version,
-            text["asset"],
-            text["location"],
-            text["by"],
-            text["note"],
-            _verdict_of(result),
-            material,
-            text["fitted"],
-            deleted_at,
-            inputs_json,
-            result_json,
-            schema.search_text(text["asset"], text["location"], text["note"], material),
-        )
+            found = conn.execute("SELECT id FROM jobs WHERE uid = ?", (self._uid_param(row[0]),)).fetchone()
+            if found is not None:
+                return int(found[0])
+            return self._insert(conn, row)
 
     def update(self, job_id: int, **changes: str) -> JobRecord:
         """Change the notes of a job (any of asset, location, by, note, fitted); returns it."""
@@ -570,7 +176,7 @@ class JobLog:
             raise LogError(f"cannot change {', '.join(sorted(unknown))}: only {', '.join(META_FIELDS)}")
         current = self.get(job_id)
         values = {name: getattr(current, name) for name in META_FIELDS}
-        values.update({name: _text(value, name) for name, value in changes.items()})
+        values.update({name: text_value(value, name) for name, value in changes.items()})
         with self._write() as conn:
             conn.execute(
                 "UPDATE jobs SET asset = ?, location = ?, by = ?, note = ?, fitted = ?, "
@@ -578,7 +184,7 @@ class JobLog:
                 (
                     values["asset"], values["location"], values["by"], values["note"], values["fitted"],
                     schema.search_text(values["asset"], values["location"], values["note"], current.material),
-                    _now(), job_id,
+                    now_utc(), job_id,
                 ),
             )
         return self.get(job_id)
@@ -591,7 +197,7 @@ class JobLog:
                 raise LogError(f"there is no job {job_id} in the log")
             if found[0] is not None:
                 raise LogError(f"job {job_id} is already in the bin")
-            now = _now()
+            now = now_utc()
             conn.execute("UPDATE jobs SET deleted_at = ?, updated_at = ? WHERE id = ?", (now, now, job_id))
 
     def restore(self, job_id: int) -> None:
@@ -602,19 +208,22 @@ class JobLog:
                 raise LogError(f"there is no job {job_id} in the log")
             if found[0] is None:
                 raise LogError(f"job {job_id} is not in the bin")
-            conn.execute("UPDATE jobs SET deleted_at = NULL, updated_at = ? WHERE id = ?", (_now(), job_id))
+            conn.execute("UPDATE jobs SET deleted_at = NULL, updated_at = ? WHERE id = ?", (now_utc(), job_id))
 
     def purge(self) -> int:
         """Remove every job in the bin for good; returns how many."""
         with self._write() as conn:
-            cursor = conn.execute("DELETE FROM jobs WHERE deleted_at IS NOT NULL")
+            cursor = conn.execute("DELETE FROM jobs WHERE deleted_at IS NOT NULL", ())
         return int(cursor.rowcount)
 
-    def import_jobs(self, rows: Iterable[Mapping[str, Any]]) -> int:
+    def import_jobs(self, rows: Iterable[Mapping[str, Any]], *, bench: str | None = None) -> int:
         """Add exported jobs (dicts as from ``export_rows``) in one transaction; returns how many.
 
-        Each job gets a new id; its times, notes and bin state are kept. A job already in the log
-        (same creation time, inputs and result) is skipped, so importing a file twice adds nothing.
+        Each job gets a new id here; its uid, times, bench, notes and bin state are kept, and
+        ``origin`` records where it came from (``<bench> #<its id there>``, kept if it had one).
+        ``bench`` names the bench the jobs came from when a row does not say. A job whose uid is
+        already in the log is skipped, so importing a file twice adds nothing; a job without a uid
+        (older exports) gets its content id (``values.content_uid``: creation time, inputs, result).
         A bad row stops the import with a message naming the row, and nothing is added.
         """
         prepared: list[tuple[Any, ...]] = []
@@ -629,29 +238,32 @@ class JobLog:
                     result = json.loads(result)
                 if not isinstance(result, Mapping):
                     raise LogError("result: expected an object")
-                created = _iso_utc(item["created_at"], "created_at") if item.get("created_at") else None
-                updated = _iso_utc(item["updated_at"], "updated_at") if item.get("updated_at") else None
-                deleted = _iso_utc(item["deleted_at"], "deleted_at") if item.get("deleted_at") else None
+                created = iso_utc(item["created_at"], "created_at") if item.get("created_at") else now_utc()
+                updated = iso_utc(item["updated_at"], "updated_at") if item.get("updated_at") else None
+                deleted = iso_utc(item["deleted_at"], "deleted_at") if item.get("deleted_at") else None
                 version = item.get("program_version")
+                came_from = text_value(item.get("bench"), "bench") or (bench or "")
+                origin = text_value(item.get("origin"), "origin")
+                if not origin and item.get("id") not in (None, ""):
+                    origin = f"{came_from or 'unnamed bench'} #{item['id']}"
+                uid = parse_uid(item["uid"]) if item.get("uid") else None
                 prepared.append(
-                    self._row(
+                    job_row(
                         inputs, result, item,
+                        uid=uid or content_uid(created, inputs, result),
+                        bench=came_from, origin=origin,
                         created_at=created, updated_at=updated, deleted_at=deleted,
                         program_version=version if isinstance(version, str) and version else None,
                     )
                 )
-            except (LogError, ValueError) as err:
+            except (LogError, ValueError, TypeError) as err:
                 raise LogError(f"job {number} of the import: {err}") from None
         added = 0
         with self._write() as conn:
             for row in prepared:
-                created, inputs_json, result_json = row[0], row[11], row[12]
-                seen = conn.execute(
-                    "SELECT 1 FROM jobs WHERE created_at = ? AND inputs_json = ? AND result_json = ?",
-                    (created, inputs_json, result_json),
-                ).fetchone()
+                seen = conn.execute("SELECT 1 FROM jobs WHERE uid = ?", (self._uid_param(row[0]),)).fetchone()
                 if seen is None:
-                    conn.execute(_INSERT, row)
+                    self._insert(conn, row)
                     added += 1
         return added
 
@@ -659,10 +271,10 @@ class JobLog:
 
     def get(self, job_id: int) -> JobRecord:
         """The job with this id (also when it is in the bin)."""
-        rows = self._read(f"SELECT {_COLUMNS} FROM jobs WHERE id = ?", (int(job_id),))
+        rows = self._read(f"SELECT {COLUMNS} FROM jobs WHERE id = ?", (int(job_id),))
         if not rows:
             raise LogError(f"there is no job {job_id} in the log")
-        return _record(rows[0])
+        return record_from_row(rows[0])
 
     def _filters(
         self, verdict: str | Iterable[str] | None, since: Any, until: Any, deleted: bool | None
@@ -682,7 +294,7 @@ class JobLog:
                 raise LogError(f"verdict: expected one of {', '.join(VERDICTS)}, got {bad[0]!r}")
             clauses.append(f"verdict IN ({', '.join('?' * len(wanted))})")
             params.extend(wanted)
-        low, high = _bound(since, "since", end=False), _bound(until, "until", end=True)
+        low, high = bound(since, "since", end=False), bound(until, "until", end=True)
         if low:
             clauses.append("created_at >= ?")
             params.append(low)
@@ -690,70 +302,6 @@ class JobLog:
             clauses.append("created_at < ?")
             params.append(high)
         return clauses, params, bool(verdict or low or high)
-
-    def _text_plan(self, text: str, *, full_count: bool = False) -> _TextPlan:
-        """Split the filter text into words and, if the trigram index can serve it, count the
-        jobs (bin included) whose text holds every word of three or more characters: up to
-        INDEX_LOOKUP_LIMIT + 1, or all of them with ``full_count`` when every word is indexed."""
-        # NUL ends a LIKE pattern inside SQLite (the rest would be ignored), so it separates words.
-        words = _text(text, "text").replace("\x00", " ").casefold().split()
-        indexed = [w for w in words if len(w) >= schema.TEXT_INDEX_MIN_CHARS]
-        if not (self.text_index and indexed):
-            return _TextPlan(words, None, None, bool(words))
-        expression = " AND ".join(_match_phrase(w) for w in indexed)
-        every_word = len(indexed) == len(words)
-        cap = None if full_count and every_word else INDEX_LOOKUP_LIMIT + 1
-        matched = self._match_count(expression, cap=cap)
-        if matched is None:  # the index could not answer: LIKE alone
-            return _TextPlan(words, None, None, True)
-        return _TextPlan(words, expression, matched, not every_word)
-
-    def _match_count(self, expression: str, cap: int | None = None) -> int | None:
-        """How many jobs (bin included) the index matches, counting no further than ``cap`` if
-        given (the index stops early); None if the index cannot answer. The last full count is
-        kept until the log changes (this connection's changes or another's commit)."""
-        try:
-            state = (
-                expression,
-                self.conn.total_changes,
-                self.conn.execute("PRAGMA data_version").fetchone()[0],
-            )
-            cached = self._match_count_cache
-            if cached is not None and cached[0] == state:
-                return cached[1] if cap is None else min(cached[1], cap)
-            query = f"SELECT rowid FROM {schema.TEXT_INDEX} WHERE {schema.TEXT_INDEX} MATCH ?"
-            if cap is not None:
-                query += f" LIMIT {int(cap)}"
-            matched = int(self.conn.execute(f"SELECT count(*) FROM ({query})", (expression,)).fetchone()[0])
-        except sqlite3.OperationalError:
-            return None
-        if cap is None or matched < cap:
-            self._match_count_cache = (state, matched)
-        return matched
-
-    def _text_query(
-        self, plan: _TextPlan, clauses: list[str], params: list[Any]
-    ) -> tuple[str, str, list[Any]]:
-        """``(FROM ..., WHERE ..., params)`` selecting the jobs that pass every filter.
-
-        With the index and at most INDEX_LOOKUP_LIMIT matches, the matched ids drive the query
-        (row lookups by id); otherwise the covering index jobs_listing is scanned with LIKE, which
-        also stops early when a page fills up. Every word is always checked with LIKE as well, so the
-        result is exactly the LIKE semantics whichever way the rows were found.
-        """
-        clauses, params = list(clauses), list(params)
-        for word in plan.words:
-            clauses.append("search_text LIKE ? ESCAPE '\\'")  # measured faster than instr()
-            params.append(_like_pattern(word))
-        source = "jobs"
-        if plan.expression is not None and plan.matched is not None and plan.matched <= INDEX_LOOKUP_LIMIT:
-            source = "jobs NOT INDEXED"  # the integer primary key is still used for the id lookups
-            clauses.insert(
-                0, f"id IN (SELECT rowid FROM {schema.TEXT_INDEX} WHERE {schema.TEXT_INDEX} MATCH ?)"
-            )
-            params.insert(0, plan.expression)
-        where = " WHERE " + " AND ".join(clauses) if clauses else ""
-        return source, where, params
 
     def search(
         self,
@@ -774,28 +322,12 @@ class JobLog:
         limit, offset = max(0, int(limit)), max(0, int(offset))
         if limit == 0:
             return []
-        cached = self._count_cache
-        if cached is not None:
-            if cached[0] == self._count_key(text, verdict, since, until, deleted) and offset >= cached[1]:
-                return []  # count() just found fewer jobs than this page starts at (none, typically)
-        plan = self._text_plan(text)
-        if plan.matched == 0:
-            return []
-        source, where, params = self._text_query(plan, clauses, params)
-        ids = [
-            row[0]
-            for row in self._read(
-                f"SELECT id FROM {source}{where} ORDER BY created_at DESC, id DESC LIMIT ? OFFSET ?",
-                [*params, limit, offset],
-            )
-        ]
+        ids = self._page_ids(text, (text, verdict, since, until, deleted), clauses, params, limit, offset)
         if not ids:
             return []
-        rows = self._read(
-            f"SELECT {_COLUMNS} FROM jobs WHERE id IN ({', '.join('?' * len(ids))})", ids
-        )
+        rows = self._read(f"SELECT {COLUMNS} FROM jobs WHERE id IN ({', '.join('?' * len(ids))})", ids)
         by_id = {row[0]: row for row in rows}
-        return [_record(by_id[i]) for i in ids if i in by_id]
+        return [record_from_row(by_id[i]) for i in ids if i in by_id]
 
     def count(
         self,
@@ -805,69 +337,14 @@ class JobLog:
         until: date | datetime | str | None = None,
         deleted: bool | None = False,
     ) -> int:
-        """How many jobs ``search`` with the same filters would find in all (always exact).
-
-        A text filter with many matches and no verdict or date filter is counted from the index:
-        all matches less those in the bin (the bin is counted with LIKE, it is small).
-        """
+        """How many jobs ``search`` with the same filters would find in all (always exact)."""
         verdict = _verdicts(verdict)
-        key = self._count_key(text, verdict, since, until, deleted)
-        if key is not None and self._count_cache is not None and self._count_cache[0] == key:
-            return self._count_cache[1]
-        found = self._count(text, verdict, since, until, deleted)
-        self._count_cache = (key, found) if key is not None else None
-        return found
-
-    def _count_key(self, *filters: Any) -> tuple[Any, ...] | None:
-        """What a count depends on: the filters and the log's state (None if unhashable)."""
-        try:
-            hash(filters)
-        except TypeError:
-            return None
-        data_version = self._read("PRAGMA data_version")[0][0]
-        return (filters, self.conn.total_changes, data_version)
-
-    def _count(
-        self, text: str, verdict: str | Iterable[str] | None, since: Any, until: Any, deleted: bool | None
-    ) -> int:
-        clauses, params, narrowed = self._filters(verdict, since, until, deleted)
-        plan = self._text_plan(text, full_count=not narrowed and deleted is not True)
-        if plan.matched == 0:
-            return 0
-        if (
-            plan.expression is not None
-            and plan.matched is not None
-            and plan.matched > INDEX_LOOKUP_LIMIT
-            and not plan.needs_like
-            and not narrowed
-            and deleted is not True
-        ):
-            matched = self._match_count(plan.expression)
-            if matched is not None:
-                if deleted is None:
-                    return matched
-                _, where, bin_params = self._text_query(
-                    _TextPlan(plan.words, None, None, True), ["deleted_at IS NOT NULL"], []
-                )
-                in_bin = int(self._read(f"SELECT count(*) FROM jobs{where}", bin_params)[0][0])
-                return matched - in_bin
-        source, where, params = self._text_query(plan, clauses, params)
-        return int(self._read(f"SELECT count(*) FROM {source}{where}", params)[0][0])
+        return self._count_jobs(text, (text, verdict, since, until, deleted))
 
     def iter_export_rows(self) -> Iterator[dict[str, Any]]:
         """Every job, bin included, oldest id first, as JSON-ready dicts (streamed)."""
-        cursor = self.conn.execute(f"SELECT {_COLUMNS} FROM jobs ORDER BY id")
-        try:
-            while True:
-                batch = cursor.fetchmany(500)
-                if not batch:
-                    return
-                for row in batch:
-                    yield _record(row).as_dict()
-        except sqlite3.Error as err:
-            raise _friendly(err, self.path) from None
-        finally:
-            cursor.close()
+        for row in self._stream(f"SELECT {COLUMNS} FROM jobs ORDER BY id"):
+            yield record_from_row(row).as_dict()
 
     def export_rows(self) -> list[dict[str, Any]]:
         """Every job, bin included, as JSON-ready dicts (``import_jobs`` takes them back)."""
@@ -883,39 +360,3 @@ class JobLog:
         except JobInputError as err:
             return Reopened(record, None, (), error=str(err))
         return Reopened(record, new_result, compare_results(record.result, new_result, rel_tol))
-
-    def forget_counts(self) -> None:
-        """Drop the remembered counts (for timing; any change to the log makes them stale anyway)."""
-        self._match_count_cache = None
-        self._count_cache = None
-
-    def integrity_ok(self) -> bool:
-        """True if SQLite's ``PRAGMA integrity_check`` finds nothing wrong (reads the whole file) and,
-        with the text index, FTS5's ``integrity-check`` finds the index itself sound (before SQLite
-        3.44 it does not compare the index with the jobs' text; the tests do that)."""
-        if self._read("PRAGMA integrity_check")[0][0] != "ok":
-            return False
-        if self.text_index:
-            try:
-                self.conn.execute(schema.TEXT_INDEX_CHECK)
-            except sqlite3.DatabaseError:
-                return False
-        return True
-
-
-_COLUMNS = ", ".join(schema.JOB_COLUMNS)
-_INSERT = (
-    "INSERT INTO jobs (created_at, updated_at, program_version, asset, location, by, note, verdict, "
-    "material, fitted, deleted_at, inputs_json, result_json, search_text) "
-    "VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?, ?)"
-)
-
-
-def _record(row: tuple[Any, ...]) -> JobRecord:
-    (job_id, created, updated, version, asset, location, by, note, verdict, material, fitted,
-     deleted_at, inputs_json, result_json) = row
-    return JobRecord(
-        id=job_id, created_at=created, updated_at=updated, program_version=version, asset=asset,
-        location=location, by=by, note=note, verdict=verdict, material=material, fitted=fitted,
-        deleted_at=deleted_at, inputs=json.loads(inputs_json), result=json.loads(result_json),
-    )

@@ -6,13 +6,17 @@ from typing import Any
 
 from textual import work
 from textual.app import ComposeResult
+from textual.binding import Binding
 from textual.containers import Horizontal
 from textual.screen import Screen
-from textual.widgets import Footer, Static
+from textual.widgets import Footer, Input, Static
 from textual.worker import get_current_worker
 
 from .. import engine
 from ..messages import EvaluationReady, SheetChanged
+from ..typeahead import MOVE_BINDINGS, TypeAheadMixin
+from ..undo import History
+from ..widgets.choice import Choice
 from ..widgets.job_sheet import JobSheet
 from ..widgets.steady import update_in_place
 from ..widgets.verdict_panel import VerdictPanel
@@ -20,8 +24,14 @@ from ..widgets.verdict_panel import VerdictPanel
 NARROW_BELOW = 100
 
 
-class JobScreen(Screen):
+class JobScreen(TypeAheadMixin, Screen):
     """Sheet + verdict; recomputes in a worker a moment after each edit."""
+
+    BINDINGS = [
+        *MOVE_BINDINGS,
+        Binding("ctrl+z", "undo", "Undo", id="job.undo", tooltip="Put back the sheet before the last change"),
+        Binding("ctrl+y", "redo", "Redo", show=False, id="job.redo"),
+    ]
 
     def __init__(self, first_inputs: dict[str, str] | None = None) -> None:
         super().__init__(id="job")
@@ -31,6 +41,7 @@ class JobScreen(Screen):
         self.last_inputs: dict[str, str] = {}
         self.wrong: dict[str, str] = {}
         self.needed: dict[str, str] = {}
+        self.history = History()
 
     def compose(self) -> ComposeResult:
         yield Static("", id="title-bar")
@@ -51,6 +62,7 @@ class JobScreen(Screen):
         if self.first_inputs:
             self.show_job_now(self.first_inputs)
         self.update_title()
+        self.history.record(self.sheet.snapshot())
         self.query_one("#power").focus()
 
     def on_resize(self, event) -> None:
@@ -75,7 +87,24 @@ class JobScreen(Screen):
 
     # -- evaluation ----------------------------------------------------------------------------
     def on_sheet_changed(self, message: SheetChanged) -> None:
+        self.history.record(self.sheet.snapshot())
         self.request_evaluation(message.inputs)
+
+    def action_undo(self) -> None:
+        """Put back the sheet as it was before the last change."""
+        state = self.history.undo()
+        if state is None:
+            self.notify("Nothing to undo.", severity="warning")
+            return
+        self.sheet.restore(state)
+
+    def action_redo(self) -> None:
+        """Put back a change just undone."""
+        state = self.history.redo()
+        if state is None:
+            self.notify("Nothing to redo.", severity="warning")
+            return
+        self.sheet.restore(state)
 
     def request_evaluation(self, inputs: dict[str, str]) -> None:
         """Evaluate ``inputs`` in a worker; only the newest request's answer is shown."""
@@ -86,7 +115,8 @@ class JobScreen(Screen):
     def show_job_now(self, inputs: dict[str, str]) -> None:
         """Put ``inputs`` on the sheet and show their evaluation at once (no debounce, no worker):
         used before the first paint, so that the first frame already holds the verdict."""
-        self.sheet.load_inputs(inputs)
+        with self.prevent(Input.Changed, Choice.Changed):  # evaluated here, and the spec lines set
+            self.sheet.load_inputs(inputs)
         self.sheet.cancel_pending()
         self.generation += 1
         self.last_inputs = self.sheet.inputs()

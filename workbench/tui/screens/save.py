@@ -8,8 +8,11 @@ from textual import work
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
+from textual.content import Content
 from textual.screen import ModalScreen
 from textual.widgets import Input, Label, Static
+
+from ..typeahead import MOVE_BINDINGS, TypeAheadMixin
 
 META_FIELDS = (("asset", "Asset"), ("location", "Location"), ("by", "By"), ("note", "Note"))
 
@@ -22,12 +25,13 @@ def save_job(log_path: str | None, inputs: dict[str, str], result: dict[str, Any
         return log.save(inputs, result, **meta)
 
 
-class SaveScreen(ModalScreen[dict[str, Any] | None]):
+class SaveScreen(TypeAheadMixin, ModalScreen[dict[str, Any] | None]):
     """Asks for the job's asset, location, who did it and a note; Enter on the note saves."""
 
     BINDINGS = [
         Binding("escape", "cancel", "Cancel", id="save.cancel"),
         Binding("ctrl+s", "save", "Save", id="save.save", priority=True),
+        *MOVE_BINDINGS,
     ]
 
     def __init__(
@@ -55,12 +59,12 @@ class SaveScreen(ModalScreen[dict[str, Any] | None]):
     def on_mount(self) -> None:
         self.query_one("#save-asset", Input).focus()
 
-    def on_input_submitted(self, event: Input.Submitted) -> None:
-        event.stop()
-        if event.input.id == "save-note":
+    def enter_on(self, widget) -> bool:
+        """Enter on the note saves; on the other fields it moves on (see typeahead)."""
+        if widget.id == "save-note":
             self.action_save()
-        else:
-            self.focus_next()
+            return True
+        return False
 
     def values(self) -> dict[str, str]:
         """The four fields as typed."""
@@ -88,7 +92,8 @@ class SaveScreen(ModalScreen[dict[str, Any] | None]):
         self.app.call_from_thread(self._done, job_id, meta)
 
     def _failed(self, message: str) -> None:
-        self.query_one("#save-status", Static).update(f"✗ not saved: {message}")
+        # the message may quote the log's path: shown as written, never read as markup
+        self.query_one("#save-status", Static).update(Content(f"✗ not saved: {message}"))
 
     def _done(self, job_id: Any, meta: dict[str, str]) -> None:
         self.app.notify(f"Saved to the job log as job {job_id}.")

@@ -108,7 +108,24 @@ class JobSheet(VerticalScroll, can_focus=False):
                 out[prefix] = spec
         return out
 
+    def snapshot(self) -> dict[str, str]:
+        """What every field holds, pick-lists included, as shown (for undo and a new job)."""
+        return {key: row.control.value for key, row in self._rows.items()}
+
     # -- writing -------------------------------------------------------------------------------
+    def restore(self, values: dict[str, str]) -> None:
+        """Put back a :meth:`snapshot` (fields it does not name are left as they are)."""
+        self._loading = True
+        try:
+            for key, value in values.items():
+                if key in self._rows:
+                    self._rows[key].set_value(value)
+            for prefix in SHAFT_PREFIXES:
+                self._apply_profile(prefix)
+        finally:
+            self._loading = False
+        self._schedule()
+
     def load_inputs(self, inputs: dict[str, str]) -> None:
         """Fill the sheet from a contract dict (demo job, a reopened log entry); clears the rest."""
         self._loading = True

@@ -1,0 +1,77 @@
+"""Typing ahead: every key goes to the field that has focus once the keys before it are handled.
+
+The keys are handed to the app all at once (one burst, as a fast typist or a paste of keystrokes
+does), not one by one with a pause between them as ``pilot.press`` does.
+"""
+
+from __future__ import annotations
+
+import unicodedata
+
+from textual import events
+
+from workbench.store.log import JobLog
+
+from .conftest import settle
+
+NAMED = {"⏎": "enter", "⇥": "tab", "⇤": "shift+tab"}
+
+
+def burst(app, text: str) -> None:
+    """Hand every key of ``text`` to the app in one go (⏎ Enter, ⇥ Tab, ⇤ Shift+Tab)."""
+    for char in text:
+        if char in NAMED:
+            key, character = NAMED[char], ("\r" if char == "⏎" else "\t" if char == "⇥" else None)
+        elif char.isalnum():
+            key, character = char, char
+        else:
+            key = unicodedata.name(char).lower().replace(" ", "_").replace("-", "_")
+            key, character = {"full_stop": "full_stop", "space": "space"}.get(key, key), char
+        event = events.Key(key, character)
+        event.set_sender(app)
+        app._driver.send_message(event)
+
+
+async def test_sheet_typed_ahead_at_full_speed_fills_every_field(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        sheet = app.job_screen.sheet
+        burst(app, "7.5⏎1450⏎5⏎0.95⏎1.25⏎2.5⏎⏎v⏎200⏎60⏎⏎40⏎k⏎g⏎1045-cd⏎s⏎36⏎")
+        await settle(pilot)
+        expected = {
+            "power": "7.5", "speed": "1450", "ratio": "5", "efficiency": "0.95",
+            "service_factor": "1.25", "peak_factor": "2.5", "torque": "", "mount": "vbelt",
+            "pitch_diameter": "200", "overhang": "60", "shaft_profile": "round",
+            "shaft_size": "40", "shaft_keyseat": "keyed", "shaft_finish": "ground",
+            "material": "1045-cd", "candidate_profile": "square", "candidate_size": "36",
+        }
+        got = {key: sheet.value(key) for key in expected}
+        assert got == expected
+        assert app.focused.id == "candidate_keyseat" or app.focused.id == "candidate_finish"
+
+
+async def test_tab_and_shift_tab_typed_ahead_keep_their_order(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        burst(app, "7.5⇥1450⇥3⇤⇤0⏎")
+        await settle(pilot)
+        sheet = app.job_screen.sheet
+        assert (sheet.value("power"), sheet.value("speed"), sheet.value("ratio")) == ("7.50", "1450", "3")
+        assert app.focused.id == "speed"
+
+
+async def test_save_dialog_typed_ahead_keeps_each_field_apart(make_app, tmp_path):
+    app = make_app(demo=True)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        app.meta = {}
+        await pilot.press("f6")
+        await settle(pilot)
+        burst(app, "CV-07⏎Line 3 west⏎Ann⏎new bar fitted⏎")
+        await settle(pilot)
+    with JobLog.open(str(tmp_path / "jobs.sqlite3")) as log:
+        (record,) = log.search(limit=5)
+    assert (record.asset, record.location, record.by, record.note) == (
+        "CV-07", "Line 3 west", "Ann", "new bar fitted")

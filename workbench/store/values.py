@@ -1,0 +1,209 @@
+"""Checking and shaping what goes into the job log and comes out of it (engine-neutral): times in
+the stored form, filter bounds, the JSON of inputs and results, and one job as a table row."""
+
+from __future__ import annotations
+
+import json
+import os
+import uuid
+from collections.abc import Mapping
+from datetime import date, datetime, timedelta, timezone
+from typing import Any
+
+from workbench.store import payload, schema
+from workbench.store.payload import payload_json
+from workbench.store.records import META_FIELDS, JobRecord, LogError
+
+
+def now_utc() -> str:
+    """The current time in the stored form (UTC ISO 8601, microseconds)."""
+    return datetime.now(timezone.utc).isoformat(timespec="microseconds")
+
+
+def iso_utc(value: str, what: str) -> str:
+    """Normalise an ISO time string to the stored form (UTC, microseconds)."""
+    try:
+        moment = datetime.fromisoformat(str(value).replace("Z", "+00:00"))
+    except ValueError:
+        raise LogError(f"{what}: expected an ISO date-time like 2025-03-01T08:30:00Z, got {value!r}") from None
+    if moment.tzinfo is None:
+        moment = moment.replace(tzinfo=timezone.utc)
+    return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+
+
+def bound(value: date | datetime | str | None, what: str, *, end: bool) -> str | None:
+    """A ``since``/``until`` filter as a stored-form time; dates are whole UTC days (until inclusive)."""
+    if value is None or value == "":
+        return None
+    if isinstance(value, str):
+        text = value.strip()
+        try:
+            value = date.fromisoformat(text) if len(text) == 10 else datetime.fromisoformat(text.replace("Z", "+00:00"))
+        except ValueError:
+            raise LogError(f"{what}: expected a date like 2025-03-01 (UTC), got {text!r}") from None
+    if isinstance(value, datetime):
+        moment = value if value.tzinfo else value.replace(tzinfo=timezone.utc)
+        return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+    if isinstance(value, date):
+        day = value + timedelta(days=1) if end else value
+        return datetime(day.year, day.month, day.day, tzinfo=timezone.utc).isoformat(timespec="microseconds")
+    raise LogError(f"{what}: expected a date, got {value!r}")
+
+
+def text_value(value: Any, what: str) -> str:
+    """A note field as text (None is empty); anything else is refused naming the field."""
+    if value is None:
+        return ""
+    if not isinstance(value, str):
+        raise LogError(f"{what}: expected text, got {type(value).__name__}")
+    return value
+
+
+def inputs_json(inputs: Any) -> str:
+    """The inputs as stored: a JSON object of field name -> text as typed."""
+    if not isinstance(inputs, Mapping) or not all(
+        isinstance(k, str) and isinstance(v, str) for k, v in inputs.items()
+    ):
+        raise LogError("inputs: expected a mapping of field name to the text as typed")
+    return json.dumps(dict(inputs), ensure_ascii=False, sort_keys=True)
+
+
+def result_json(result: Any) -> str:
+    """The result as stored: JSON text of the whole result mapping."""
+    if not isinstance(result, Mapping):
+        raise LogError("result: expected the result mapping from evaluate_inputs")
+    try:
+        return json.dumps(result, ensure_ascii=False, sort_keys=True)
+    except (TypeError, ValueError) as err:
+        raise LogError(f"result: not JSON-ready ({err})") from None
+
+
+def verdict_of(result: Mapping[str, Any]) -> str:
+    verdict = result.get("verdict")
+    return verdict if isinstance(verdict, str) else ""
+
+
+def material_of(inputs: Mapping[str, str], result: Mapping[str, Any]) -> str:
+    """The materials a job names (input keys and the result's material names), comma separated."""
+    names: list[str] = []
+    for value in (inputs.get("material"), inputs.get("candidate_material")):
+        if value:
+            names.append(value.strip())
+    for shaft in result.get("shafts") or []:
+        if isinstance(shaft, Mapping):
+            for key in ("material", "material_name"):
+                value = shaft.get(key)
+                if isinstance(value, str) and value.strip():
+                    names.append(value.strip())
+    unique = dict.fromkeys(n for n in names if n)
+    return ", ".join(unique)
+
+
+INSERT_COLUMNS = (
+    "uid", "created_at", "updated_at", "program_version", "bench", "origin", "asset", "location",
+    "by", "note", "verdict", "material", "fitted", "deleted_at", "payload", "search_text",
+)
+"""The columns of ``job_row``'s tuple, in order (``uid`` is a ``uuid.UUID``; engines adapt it)."""
+
+UID_NAMESPACE = uuid.UUID("6f1d3c2e-8a4b-5c7d-9e0f-53424a4c0004")
+"""Namespace of the content ids given to jobs that came without a uid (older logs and exports)."""
+BENCH_ENV_VAR = "SHAFTBENCH_BENCH"
+
+
+def bench_name() -> str:
+    """The name this bench saves its jobs under: ``$SHAFTBENCH_BENCH``, else the machine's name."""
+    name = os.environ.get(BENCH_ENV_VAR, "").strip()
+    if name:
+        return name
+    import socket
+
+    return socket.gethostname() or "bench"
+
+
+def content_uid(created_at: str, inputs: Any, result: Any) -> uuid.UUID:
+    """The uid of a job that has none: a name-based UUID (RFC 4122 version 5) of its creation time,
+    inputs and result, so that the same job imported or migrated twice gets the same uid."""
+    return uuid.uuid5(UID_NAMESPACE, created_at + "\n" + payload_json(inputs, result).decode())
+
+
+def parse_uid(value: Any) -> uuid.UUID:
+    """A uid given as text or a UUID (LogError naming the field otherwise)."""
+    if isinstance(value, uuid.UUID):
+        return value
+    try:
+        return uuid.UUID(str(value))
+    except ValueError:
+        raise LogError(f"uid: expected a UUID like 1b4e28ba-2fa1-11d2-883f-0016d3cca427, got {value!r}") from None
+
+
+def job_row(
+    inputs: Any,
+    result: Any,
+    meta: Mapping[str, Any],
+    *,
+    uid: uuid.UUID | None = None,
+    bench: str | None = None,
+    origin: str = "",
+    created_at: str | None = None,
+    updated_at: str | None = None,
+    program_version: str | None = None,
+    deleted_at: str | None = None,
+    stored_payload: bytes | None = None,
+) -> tuple[Any, ...]:
+    """One job as the values of INSERT_COLUMNS, every field checked (LogError names a bad one).
+
+    ``stored_payload``: the payload already encoded for these inputs and result (bulk paths that
+    store one result many times); otherwise it is encoded here.
+
+    Without ``uid`` a new random one is made (a fresh save); the caller passes ``content_uid`` for
+    jobs that come without one."""
+    inputs_json(inputs)  # checks the inputs' shape
+    result_json(result)  # checks the result is a JSON-ready mapping
+    text = {name: text_value(meta.get(name), name) for name in META_FIELDS}
+    if program_version is None:
+        program = result.get("program")
+        program_version = program.get("version") if isinstance(program, Mapping) else None
+        if not isinstance(program_version, str):
+            from workbench import __version__
+
+            program_version = __version__
+    created = created_at or now_utc()
+    material = material_of(inputs, result)
+    return (
+        uid or uuid.uuid4(),
+        created,
+        None if updated_at in (None, created) else updated_at,
+        program_version,
+        text_value(bench, "bench") if bench is not None else bench_name(),
+        text_value(origin, "origin"),
+        text["asset"],
+        text["location"],
+        text["by"],
+        text["note"],
+        verdict_of(result),
+        material,
+        text["fitted"],
+        deleted_at,
+        stored_payload if stored_payload is not None else payload.encode(inputs, result),
+        schema.search_text(text["asset"], text["location"], text["note"], material),
+    )
+
+
+def uid_text(value: Any) -> str:
+    """A stored uid (16 bytes in SQLite, a UUID in PostgreSQL) as its usual text form."""
+    if isinstance(value, (bytes, bytearray, memoryview)):
+        return str(uuid.UUID(bytes=bytes(value)))
+    return str(value)
+
+
+def record_from_row(row: tuple[Any, ...]) -> JobRecord:
+    """A JobRecord from a row of ``schema.JOB_COLUMNS``."""
+    (job_id, created, updated, version, asset, location, by, note, verdict, material, fitted,
+     deleted_at, stored, uid, bench, origin) = row
+    inputs, result = payload.decode(stored)
+    return JobRecord(
+        id=job_id, created_at=created, updated_at=updated or created, program_version=version,
+        asset=asset, location=location, by=by, note=note, verdict=verdict, material=material,
+        fitted=fitted, deleted_at=deleted_at, inputs=inputs, result=result,
+        uid=uid_text(uid), bench=bench, origin=origin,
+    )
