@@ -309,7 +309,7 @@ def test_bad_input_in_a_separate_process():
         capture_output=True, text=True, timeout=120, env={**os.environ, "PYTHONWARNINGS": "ignore"},
     )
     assert_bad_input(proc.returncode, proc.stdout, proc.stderr, "power")
-    assert proc.stderr.startswith("shaftbench: power")
+    assert proc.stderr.startswith("shaftbench: --power: ")
 
 
 def test_unknown_material_message_quotes_the_key(capsys):

@@ -38,6 +38,8 @@ def test_step_names_and_rows():
     # a step with no label is named from its kind, keyseat and diameter
     assert step_name({"kind": "seat", "keyed": True, "diameter_m": 0.035}) == "hub seat, keyed, 35.0 mm"
     assert step_name({"kind": "journal", "diameter_m": 1.25 * 0.0254}, "inch") == "journal, 1.25 in"
+    assert step_name({"kind": "journal", "label": "bearing 1 journal", "diameter_m": 0.04}) == (
+        "bearing 1 journal, 40.0 mm")
 
 
 def test_whole_shaft_checks_and_not_checked():

@@ -25,11 +25,16 @@ EXIT_BAD_INPUT = 2
 # (option, input key, help). Every option is a string exactly as typed; the job contract reads it.
 JOB_OPTIONS = (
     ("--power", "power", "motor nameplate power, e.g. '7.5 kW' or '10 hp' (bare number: kW)"),
-    ("--speed", "speed", "motor nameplate speed, e.g. '1450 rpm' (bare number: rpm)"),
+    ("--speed", "speed", "motor nameplate speed, e.g. '1450 rpm', '1450 r/min', '24 rev/s' (bare number: rpm; "
+     "Hz is refused: on a nameplate it is the supply frequency)"),
     ("--torque", "torque", "torque at the shaft instead of power and speed, e.g. '50 N*m', '400 lbf*in'"),
-    ("--ratio", "ratio", "speed reduction motor -> shaft (default 1)"),
+    ("--ratio", "ratio", "drive ratio = motor speed / shaft speed: '25' or '25:1' a reduction (motor:shaft turns), "
+     "'1:1.4' a speed-up; '1/25' is refused as ambiguous (default 1)"),
     ("--efficiency", "efficiency", "drive efficiency, '0.95' or '95%%' (default 1)"),
-    ("--service-factor", "service_factor", "service factor of the driven machine's duty (default 1)"),
+    ("--service-factor", "service_factor", "service factor for the driven machine's duty; overrides --duty "
+     "(none given: 1.0 assumed and said in the warnings; below 1.0 the shaft is checked at 1.0)"),
+    ("--duty", "duty", "driven machine's duty, picks the service factor from the AGMA table: '[MACHINE-]LOAD HOURS', "
+     "LOAD uniform | moderate | heavy | extreme, HOURS a day, e.g. 'conveyor-uniform 10h', 'crusher-heavy 24h'"),
     ("--peak-factor", "peak_factor", "start/peak torque as a multiple of running torque (default 2; NEMA design B motors start at 0.7-2.75x full-load torque, EASA after NEMA MG 10)"),
     ("--mount", "mount", "coupling | sprocket | timing-belt | gear | vbelt | flat-belt (default coupling)"),
     ("--pitch-diameter", "pitch_diameter", "pitch diameter of the pulley/sprocket/gear (bare: mm)"),
@@ -291,7 +296,11 @@ def main(argv: list[str] | None = None) -> int:
         from workbench.job import JobInputError
         from workbench.store.log import LogError
 
-        if isinstance(err, (JobInputError, LogError)):
+        if isinstance(err, JobInputError):  # name the option, not the internal key (--pitch-diameter)
+            from workbench.field_names import option_for
+
+            err = f"{option_for(err.field)}: {err.message}"
+        if isinstance(err, (str, LogError)):
             sys.stderr.write(f"shaftbench: {cut(' '.join(str(err).split()), MESSAGE_LIMIT)}\n")
             return EXIT_BAD_INPUT
         if isinstance(err, OSError) and err.errno is not None:

@@ -140,8 +140,12 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
     export.add_argument("--format", choices=("csv", "json"), default="json")
     export.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
 
-    imp = command("import", "add the jobs of a CSV or JSON export (jobs already there are skipped)", _cmd_import)
-    imp.add_argument("file", metavar="FILE")
+    imp = command("import", "add the jobs of another job log file or of a CSV or JSON export "
+                  "(jobs already there are skipped)", _cmd_import)
+    imp.add_argument("file", metavar="FILE", help="an SQLite job log, or a JSON/CSV export")
+    imp.add_argument("--bench", default=None, metavar="NAME",
+                     help="the bench the jobs came from, for jobs that do not name one "
+                          "(default: the file's name without its extension)")
 
     card = command("card", "print or write the job card of a job (html: a printable page, one page per job)",
                    _cmd_card)
@@ -260,10 +264,10 @@ def _cmd_list(args: argparse.Namespace) -> int:
     from rich.table import Table
 
     from workbench.report.jobcard import literal, verdict_text, when
-    from workbench.store import default_log_path
+    from workbench.store.paths import log_target
 
-    path = Path(args.log).expanduser() if args.log else default_log_path()
-    if not path.exists():
+    path = log_target(args.log)
+    if isinstance(path, Path) and not path.exists():
         if args.json:
             sys.stdout.write("[]\n")
         else:
@@ -340,15 +344,25 @@ def _cmd_export(args: argparse.Namespace) -> int:
 
 
 def _cmd_import(args: argparse.Namespace) -> int:
-    from workbench.store.exchange import read_jobs_file
+    from workbench.store.exchange import read_jobs_file, read_log_file
 
-    rows = read_jobs_file(Path(args.file))
+    source = Path(args.file).expanduser()
+    rows = read_log_file(source) if _is_sqlite_file(source) else read_jobs_file(source)
+    bench = args.bench if args.bench is not None else source.stem
     with _open(args, create=True) as log:
-        added = log.import_jobs(rows)
+        added = log.import_jobs(rows, bench=bench)
     skipped = len(rows) - added
     note = f" ({skipped} already in the log)" if skipped else ""
     print(f"imported {added} job{'s' if added != 1 else ''}{note}")
     return EXIT_OK
+
+
+def _is_sqlite_file(path: Path) -> bool:
+    try:
+        with open(path, "rb") as handle:
+            return handle.read(16) == b"SQLite format 3\x00"
+    except OSError:
+        return False
 
 
 def _cmd_card(args: argparse.Namespace) -> int:

@@ -37,7 +37,7 @@ def test_a_v1_log_is_migrated_keeping_every_row(tmp_path):
     path = tmp_path / "jobs.sqlite3"
     rows = _v1_log(path, jobs=25)
     with JobLog.open(path) as log:
-        assert user_version(log.conn) == schema.LATEST_VERSION == 3
+        assert user_version(log.conn) == schema.LATEST_VERSION == 4
         records = sorted(log.search(limit=100), key=lambda r: r.id)
         assert len(records) == 25
         for record, row in zip(records, rows):
@@ -97,7 +97,7 @@ def test_a_v2_log_is_migrated_keeping_every_row_and_its_bin(tmp_path):
     path = tmp_path / "jobs.sqlite3"
     rows = _v2_log(path, jobs=30)
     with JobLog.open(path) as log:
-        assert user_version(log.conn) == 3
+        assert user_version(log.conn) == schema.LATEST_VERSION
         records = sorted(log.search(limit=100, deleted=None), key=lambda r: r.id)
         assert len(records) == 30
         for record, row in zip(records, rows):

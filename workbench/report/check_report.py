@@ -68,12 +68,30 @@ def _shafts_table(result: dict, system: str) -> Table:
     table = Table(show_edge=False, expand=False, pad_edge=False)
     table.add_column("", style="dim", no_wrap=True)
     for shaft in result["shafts"]:
-        table.add_column(Text(f"{shaft['role']}: {shaft['spec']}"), overflow="fold")
+        table.add_column(Text(f"{shaft['role']}: {spec_label(shaft)}"), overflow="fold")
     for label, getter in ROWS:
         table.add_row(label, *(Text(getter(shaft, system)) for shaft in result["shafts"]))
+    if any(shaft.get("buckling_safety_factor") is not None for shaft in result["shafts"]):
+        table.add_row("buckling SF (thin tube)", *(Text(fmt.factor(shaft.get("buckling_safety_factor"))
+                                                       if shaft.get("buckling_safety_factor") is not None else "—")
+                                                  for shaft in result["shafts"]))
     table.add_row("verdict", *(verdict_text(shaft["verdict"]) for shaft in result["shafts"]))
     table.add_row("why", *(Text(shaft["why"]) for shaft in result["shafts"]))
     return table
+
+
+def spec_label(shaft: dict) -> str:
+    """A shaft's spec as shown: a hex size is said to be across flats."""
+    spec = shaft["spec"]
+    return f"{spec} (across flats)" if shaft.get("profile") == "hex" and "across" not in spec else spec
+
+
+def warnings_text(result: dict) -> Text | None:
+    """The job's warnings (assumptions and doubtful readings), one line each, for beside the verdict."""
+    lines = result.get("warnings") or []
+    if not lines:
+        return None
+    return Text("\n".join(f"⚠ {line}" for line in lines), style="yellow")
 
 
 def steps_panel(result: dict, system: str) -> Panel | None:
@@ -123,6 +141,9 @@ def render_check(result: dict, system: str = "metric") -> Group:
             f"stiffness {comparison['stiffness_ratio']:.2f}x, mass {comparison['mass_ratio']:.2f}x"
         )
     parts.append(summary)
+    warned = warnings_text(result)
+    if warned is not None:
+        parts.append(warned)
     from workbench.report.steps_report import steps_panels
 
     parts.extend(steps_panels(result, system))

@@ -214,3 +214,27 @@ def read_jobs_file(path: Path) -> list[dict[str, Any]]:
     except (OSError, UnicodeDecodeError) as err:
         raise LogError(f"cannot read {path}: {getattr(err, 'strerror', None) or err}") from None
     return read_jobs(text, name=str(path))
+
+
+def read_log_file(path: Path) -> list[dict[str, Any]]:
+    """Every job (bin included) of another SQLite job log, read from a private copy of it so that
+    the source is never changed (not even migrated); LogError if it is not a job log."""
+    import shutil
+    import tempfile
+
+    from workbench.store.log import JobLog
+
+    with tempfile.TemporaryDirectory(prefix="shaftbench-import-") as folder:
+        copy = Path(folder) / "source.sqlite3"
+        try:
+            shutil.copyfile(path, copy)
+            for suffix in ("-wal",):
+                if Path(f"{path}{suffix}").exists():
+                    shutil.copyfile(f"{path}{suffix}", f"{copy}{suffix}")
+        except OSError as err:
+            raise LogError(f"cannot read {path}: {err.strerror or err}") from None
+        try:
+            with JobLog.open(copy, create=False) as source:
+                return source.export_rows()
+        except LogError as err:
+            raise LogError(str(err).replace(str(copy), str(path))) from None

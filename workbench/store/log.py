@@ -13,6 +13,7 @@ from __future__ import annotations
 
 import json
 import os
+import uuid
 from collections.abc import Iterable, Iterator, Mapping
 from contextlib import AbstractContextManager
 from datetime import date, datetime
@@ -21,7 +22,7 @@ from typing import Any
 
 from workbench.store import schema
 from workbench.store.compare import compare_results
-from workbench.store.paths import default_log_path
+from workbench.store.paths import default_log_path, log_target
 from workbench.store.records import (
     META_FIELDS,
     VERDICTS,
@@ -33,9 +34,11 @@ from workbench.store.records import (
 from workbench.store.values import (
     INSERT_COLUMNS,
     bound,
+    content_uid,
     iso_utc,
     job_row,
     now_utc,
+    parse_uid,
     record_from_row,
     text_value,
 )
@@ -75,10 +78,17 @@ class JobLog:
 
     @classmethod
     def open(cls, path: str | os.PathLike[str] | None = None, *, create: bool = True) -> JobLog:
-        """Open (and create or migrate, if needed) the job log at ``path`` or the default path."""
+        """Open (and create or migrate, if needed) the job log at ``path`` or the default log.
+
+        ``path`` (or ``$SHAFTBENCH_LOG``) is a file, or a ``postgresql://`` URL of a shared log."""
+        target = log_target(path) if path is None or isinstance(path, str) else Path(path)
+        if isinstance(target, str):
+            from workbench.store.pg_log import PgJobLog
+
+            return PgJobLog.open_url(target, create=create)
         from workbench.store.sqlite_log import SqliteJobLog
 
-        return SqliteJobLog.open_file(path, create=create)
+        return SqliteJobLog.open_file(target, create=create)
 
     def close(self) -> None:
         """Close the log (safe to call twice)."""
@@ -102,6 +112,10 @@ class JobLog:
 
     def _insert(self, conn: Any, row: tuple[Any, ...]) -> int:
         """Insert one job row (INSERT_COLUMNS) inside ``_write``; returns its id."""
+        raise NotImplementedError
+
+    def _uid_param(self, uid: uuid.UUID) -> Any:
+        """A uid as this engine stores it."""
         raise NotImplementedError
 
     def _stream(self, sql: str) -> Iterator[tuple[Any, ...]]:
@@ -137,10 +151,22 @@ class JobLog:
         by: str = "",
         note: str = "",
         fitted: str = "",
+        uid: str | uuid.UUID | None = None,
+        bench: str | None = None,
     ) -> int:
-        """Store one job durably; returns its id. ``inputs`` are kept exactly as typed."""
-        row = job_row(inputs, result, dict(asset=asset, location=location, by=by, note=note, fitted=fitted))
+        """Store one job durably; returns its id. ``inputs`` are kept exactly as typed.
+
+        ``uid`` (made by the caller, e.g. ``uuid.uuid4()``) makes a resend safe: a job with this uid
+        already in the log is not stored again, and its id is returned. ``bench`` defaults to
+        ``values.bench_name()``."""
+        row = job_row(
+            inputs, result, dict(asset=asset, location=location, by=by, note=note, fitted=fitted),
+            uid=parse_uid(uid) if uid is not None else None, bench=bench,
+        )
         with self._write() as conn:
+            found = conn.execute("SELECT id FROM jobs WHERE uid = ?", (self._uid_param(row[0]),)).fetchone()
+            if found is not None:
+                return int(found[0])
             return self._insert(conn, row)
 
     def update(self, job_id: int, **changes: str) -> JobRecord:
@@ -190,11 +216,14 @@ class JobLog:
             cursor = conn.execute("DELETE FROM jobs WHERE deleted_at IS NOT NULL", ())
         return int(cursor.rowcount)
 
-    def import_jobs(self, rows: Iterable[Mapping[str, Any]]) -> int:
+    def import_jobs(self, rows: Iterable[Mapping[str, Any]], *, bench: str | None = None) -> int:
         """Add exported jobs (dicts as from ``export_rows``) in one transaction; returns how many.
 
-        Each job gets a new id; its times, notes and bin state are kept. A job already in the log
-        (same creation time, inputs and result) is skipped, so importing a file twice adds nothing.
+        Each job gets a new id here; its uid, times, bench, notes and bin state are kept, and
+        ``origin`` records where it came from (``<bench> #<its id there>``, kept if it had one).
+        ``bench`` names the bench the jobs came from when a row does not say. A job whose uid is
+        already in the log is skipped, so importing a file twice adds nothing; a job without a uid
+        (older exports) gets its content id (``values.content_uid``: creation time, inputs, result).
         A bad row stops the import with a message naming the row, and nothing is added.
         """
         prepared: list[tuple[Any, ...]] = []
@@ -209,27 +238,30 @@ class JobLog:
                     result = json.loads(result)
                 if not isinstance(result, Mapping):
                     raise LogError("result: expected an object")
-                created = iso_utc(item["created_at"], "created_at") if item.get("created_at") else None
+                created = iso_utc(item["created_at"], "created_at") if item.get("created_at") else now_utc()
                 updated = iso_utc(item["updated_at"], "updated_at") if item.get("updated_at") else None
                 deleted = iso_utc(item["deleted_at"], "deleted_at") if item.get("deleted_at") else None
                 version = item.get("program_version")
+                came_from = text_value(item.get("bench"), "bench") or (bench or "")
+                origin = text_value(item.get("origin"), "origin")
+                if not origin and item.get("id") not in (None, ""):
+                    origin = f"{came_from or 'unnamed bench'} #{item['id']}"
+                uid = parse_uid(item["uid"]) if item.get("uid") else None
                 prepared.append(
                     job_row(
                         inputs, result, item,
+                        uid=uid or content_uid(created, inputs, result),
+                        bench=came_from, origin=origin,
                         created_at=created, updated_at=updated, deleted_at=deleted,
                         program_version=version if isinstance(version, str) and version else None,
                     )
                 )
-            except (LogError, ValueError) as err:
+            except (LogError, ValueError, TypeError) as err:
                 raise LogError(f"job {number} of the import: {err}") from None
         added = 0
         with self._write() as conn:
             for row in prepared:
-                created, inputs_json, result_json = row[0], row[11], row[12]
-                seen = conn.execute(
-                    "SELECT 1 FROM jobs WHERE created_at = ? AND inputs_json = ? AND result_json = ?",
-                    (created, inputs_json, result_json),
-                ).fetchone()
+                seen = conn.execute("SELECT 1 FROM jobs WHERE uid = ?", (self._uid_param(row[0]),)).fetchone()
                 if seen is None:
                     self._insert(conn, row)
                     added += 1

@@ -28,10 +28,64 @@ def _v2_to_v3(conn: sqlite3.Connection) -> None:
     # Without FTS5/trigram the log still becomes v3 (no table changes are needed for LIKE); the
     # index is built by ensure_text_index the first time a capable SQLite opens the file.
     if text_index_supported():
-        _build_text_index(conn)
+        build_text_index(conn)
 
 
-STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3}
+def _v3_to_v4(conn: sqlite3.Connection) -> None:
+    """Rebuild the jobs table in the v4 shape: inputs and result in one compressed payload, a uid
+    per job (its content id, so an older export of the same job is still recognised), updated_at
+    NULL while it equals created_at; ids and the id sequence are kept. The text index is rebuilt
+    and the counts table filled. A row whose stored JSON cannot be read is kept as it was stored
+    (payload format 0 holding the two texts), so nothing is dropped."""
+    import json
+    import uuid
+
+    from workbench.store import payload
+    from workbench.store.values import content_uid
+
+    sequence = conn.execute("SELECT seq FROM sqlite_sequence WHERE name = 'jobs'").fetchone()
+    for trigger in schema.TEXT_TRIGGERS:
+        conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
+    conn.execute(f"DROP TABLE IF EXISTS {schema.TEXT_INDEX}")
+    conn.execute(schema.jobs_table("sqlite", "jobs_v4"))
+    columns = [c for c, _ in schema.JOBS_V4]
+    insert = f"INSERT INTO jobs_v4 ({', '.join(columns)}) VALUES ({', '.join('?' * len(columns))})"
+    seen: set[bytes] = set()
+    cursor = conn.execute(f"SELECT {', '.join(schema.V3_COLUMNS)}, search_text FROM jobs ORDER BY id")
+    while True:
+        batch = cursor.fetchmany(1000)
+        if not batch:
+            break
+        rows = []
+        for (job_id, created, updated, version, asset, location, by, note, verdict, material, fitted,
+             deleted_at, inputs_json, result_json, text) in batch:
+            try:
+                inputs, result = json.loads(inputs_json), json.loads(result_json)
+                blob = payload.encode(inputs, result)
+                uid = content_uid(created, inputs, result).bytes
+            except (ValueError, TypeError):
+                blob = bytes([payload.FORMAT_PLAIN]) + f"{inputs_json}\x00{result_json}".encode()
+                uid = uuid.uuid4().bytes
+            if uid in seen:  # the same job saved twice in the same microsecond: keep both
+                uid = uuid.uuid4().bytes
+            seen.add(uid)
+            rows.append((job_id, uid, created, None if updated == created else updated, version, "", "",
+                         asset, location, by, note, verdict, material, fitted, deleted_at, blob, text))
+        conn.executemany(insert, rows)
+    conn.execute("DROP TABLE jobs")
+    conn.execute("ALTER TABLE jobs_v4 RENAME TO jobs")
+    if sequence is not None:
+        conn.execute("DELETE FROM sqlite_sequence WHERE name = 'jobs'")
+        conn.execute("INSERT INTO sqlite_sequence (name, seq) VALUES ('jobs', ?)", (sequence[0],))
+    for statement in (*schema.SQLITE_V4_INDEXES, *schema.SQLITE_COUNTS, schema.COUNTS_FILL):
+        conn.execute(statement)
+    if text_index_supported():
+        build_text_index(conn)
+
+
+STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {
+    1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3, 4: _v3_to_v4,
+}
 """STEPS[n] brings a log from version n - 1 to version n."""
 
 
@@ -95,7 +149,7 @@ def _text_index_parts(conn: sqlite3.Connection) -> set[str]:
     return {name for (name,) in rows}
 
 
-def _build_text_index(conn: sqlite3.Connection) -> None:
+def build_text_index(conn: sqlite3.Connection) -> None:
     """(Re)create the index and its triggers and fill it from jobs.search_text (caller's transaction)."""
     for trigger in schema.TEXT_TRIGGERS:
         conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
@@ -126,7 +180,7 @@ def ensure_text_index(conn: sqlite3.Connection) -> bool:
     try:
         parts = _text_index_parts(conn)
         if supported and parts != wanted:
-            _build_text_index(conn)
+            build_text_index(conn)
         elif not supported:
             for trigger in schema.TEXT_TRIGGERS:
                 conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")

@@ -40,6 +40,12 @@ class JobRecord:
     """UTC ISO time the job was moved to the bin, or None."""
     inputs: dict[str, str] = field(repr=False)
     result: dict[str, Any] = field(repr=False)
+    uid: str = ""
+    """The job's unique id, made by the bench that saved it (a resend of the same save adds nothing)."""
+    bench: str = ""
+    """The bench that saved the job (``$SHAFTBENCH_BENCH``, else the machine's name)."""
+    origin: str = ""
+    """Where an imported job came from: ``<bench> #<id there>``; empty for a job saved here."""
 
     @property
     def deleted(self) -> bool:
@@ -63,6 +69,9 @@ class JobRecord:
             "deleted_at": self.deleted_at,
             "inputs": self.inputs,
             "result": self.result,
+            "uid": self.uid,
+            "bench": self.bench,
+            "origin": self.origin,
         }
 
 

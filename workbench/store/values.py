@@ -4,11 +4,14 @@ the stored form, filter bounds, the JSON of inputs and results, and one job as a
 from __future__ import annotations
 
 import json
+import os
+import uuid
 from collections.abc import Mapping
 from datetime import date, datetime, timedelta, timezone
 from typing import Any
 
-from workbench.store import schema
+from workbench.store import payload, schema
+from workbench.store.payload import payload_json
 from workbench.store.records import META_FIELDS, JobRecord, LogError
 
 
@@ -97,10 +100,40 @@ def material_of(inputs: Mapping[str, str], result: Mapping[str, Any]) -> str:
 
 
 INSERT_COLUMNS = (
-    "created_at", "updated_at", "program_version", "asset", "location", "by", "note", "verdict",
-    "material", "fitted", "deleted_at", "inputs_json", "result_json", "search_text",
+    "uid", "created_at", "updated_at", "program_version", "bench", "origin", "asset", "location",
+    "by", "note", "verdict", "material", "fitted", "deleted_at", "payload", "search_text",
 )
-"""The columns of ``job_row``'s tuple, in order."""
+"""The columns of ``job_row``'s tuple, in order (``uid`` is a ``uuid.UUID``; engines adapt it)."""
+
+UID_NAMESPACE = uuid.UUID("6f1d3c2e-8a4b-5c7d-9e0f-53424a4c0004")
+"""Namespace of the content ids given to jobs that came without a uid (older logs and exports)."""
+BENCH_ENV_VAR = "SHAFTBENCH_BENCH"
+
+
+def bench_name() -> str:
+    """The name this bench saves its jobs under: ``$SHAFTBENCH_BENCH``, else the machine's name."""
+    name = os.environ.get(BENCH_ENV_VAR, "").strip()
+    if name:
+        return name
+    import socket
+
+    return socket.gethostname() or "bench"
+
+
+def content_uid(created_at: str, inputs: Any, result: Any) -> uuid.UUID:
+    """The uid of a job that has none: a name-based UUID (RFC 4122 version 5) of its creation time,
+    inputs and result, so that the same job imported or migrated twice gets the same uid."""
+    return uuid.uuid5(UID_NAMESPACE, created_at + "\n" + payload_json(inputs, result).decode())
+
+
+def parse_uid(value: Any) -> uuid.UUID:
+    """A uid given as text or a UUID (LogError naming the field otherwise)."""
+    if isinstance(value, uuid.UUID):
+        return value
+    try:
+        return uuid.UUID(str(value))
+    except ValueError:
+        raise LogError(f"uid: expected a UUID like 1b4e28ba-2fa1-11d2-883f-0016d3cca427, got {value!r}") from None
 
 
 def job_row(
@@ -108,13 +141,24 @@ def job_row(
     result: Any,
     meta: Mapping[str, Any],
     *,
+    uid: uuid.UUID | None = None,
+    bench: str | None = None,
+    origin: str = "",
     created_at: str | None = None,
     updated_at: str | None = None,
     program_version: str | None = None,
     deleted_at: str | None = None,
+    stored_payload: bytes | None = None,
 ) -> tuple[Any, ...]:
-    """One job as the values of INSERT_COLUMNS, every field checked (LogError names a bad one)."""
-    stored_inputs, stored_result = inputs_json(inputs), result_json(result)
+    """One job as the values of INSERT_COLUMNS, every field checked (LogError names a bad one).
+
+    ``stored_payload``: the payload already encoded for these inputs and result (bulk paths that
+    store one result many times); otherwise it is encoded here.
+
+    Without ``uid`` a new random one is made (a fresh save); the caller passes ``content_uid`` for
+    jobs that come without one."""
+    inputs_json(inputs)  # checks the inputs' shape
+    result_json(result)  # checks the result is a JSON-ready mapping
     text = {name: text_value(meta.get(name), name) for name in META_FIELDS}
     if program_version is None:
         program = result.get("program")
@@ -126,9 +170,12 @@ def job_row(
     created = created_at or now_utc()
     material = material_of(inputs, result)
     return (
+        uid or uuid.uuid4(),
         created,
-        updated_at or created,
+        None if updated_at in (None, created) else updated_at,
         program_version,
+        text_value(bench, "bench") if bench is not None else bench_name(),
+        text_value(origin, "origin"),
         text["asset"],
         text["location"],
         text["by"],
@@ -137,18 +184,26 @@ def job_row(
         material,
         text["fitted"],
         deleted_at,
-        stored_inputs,
-        stored_result,
+        stored_payload if stored_payload is not None else payload.encode(inputs, result),
         schema.search_text(text["asset"], text["location"], text["note"], material),
     )
+
+
+def uid_text(value: Any) -> str:
+    """A stored uid (16 bytes in SQLite, a UUID in PostgreSQL) as its usual text form."""
+    if isinstance(value, (bytes, bytearray, memoryview)):
+        return str(uuid.UUID(bytes=bytes(value)))
+    return str(value)
 
 
 def record_from_row(row: tuple[Any, ...]) -> JobRecord:
     """A JobRecord from a row of ``schema.JOB_COLUMNS``."""
     (job_id, created, updated, version, asset, location, by, note, verdict, material, fitted,
-     deleted_at, stored_inputs, stored_result) = row
+     deleted_at, stored, uid, bench, origin) = row
+    inputs, result = payload.decode(stored)
     return JobRecord(
-        id=job_id, created_at=created, updated_at=updated, program_version=version, asset=asset,
-        location=location, by=by, note=note, verdict=verdict, material=material, fitted=fitted,
-        deleted_at=deleted_at, inputs=json.loads(stored_inputs), result=json.loads(stored_result),
+        id=job_id, created_at=created, updated_at=updated or created, program_version=version,
+        asset=asset, location=location, by=by, note=note, verdict=verdict, material=material,
+        fitted=fitted, deleted_at=deleted_at, inputs=inputs, result=result,
+        uid=uid_text(uid), bench=bench, origin=origin,
     )

@@ -214,7 +214,7 @@ def compose_spec(profile: str, size: str, second: str, keyseat: str, finish: str
     else:
         body = f"{profile} {with_mm(size)}"
     words = [body, *shape_words]
-    if keyseat == "keyed" and profile in ("round", "tube"):
+    if keyseat == "keyed":  # a square, hex or flat bar is keyed in its turned hub seat
         words.append("keyed")
     if finish and finish != "machined":
         words.append(finish)

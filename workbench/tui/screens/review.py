@@ -204,7 +204,9 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         id: str | None = None,
     ) -> None:
         super().__init__(name=name, id=id)
-        self.log_path = Path(log_path).expanduser() if log_path else None
+        from workbench.store.paths import is_database_url
+
+        self.log_path = (log_path if is_database_url(log_path) else Path(log_path).expanduser()) if log_path else None
         self.page_size = page_size
         self.card_dir = Path(card_dir) if card_dir else Path.cwd()
         self.page = 0

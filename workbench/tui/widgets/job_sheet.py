@@ -182,7 +182,6 @@ class JobSheet(VerticalScroll, can_focus=False):
         second = self.row(f"{prefix}_second")
         second.display = profile in SECOND_LABEL
         second.set_label(SECOND_LABEL.get(profile, "Bore"))
-        self.row(f"{prefix}_keyseat").display = profile in ("round", "tube")
         size_row = self.row(f"{prefix}_size")
         size_row.set_hint(SIZE_HINT.get(profile, ""))
         size_row.set_placeholder(SIZE_PLACEHOLDER.get(profile, "e.g. 40"))
@@ -201,7 +200,7 @@ class JobSheet(VerticalScroll, can_focus=False):
     def _shown(self, key: str) -> bool:
         """False for a field that only applies to another choice (e.g. From bearing, overhung)."""
         rule = SHOWN_WHEN.get(key)
-        return rule is None or self.value(rule[0]) == rule[1]
+        return rule is None or self.value(rule[0]) in rule[1]
 
     def _apply_shown(self) -> None:
         for key in SHOWN_WHEN:
