@@ -34,6 +34,8 @@ class JobScreen(TypeAheadMixin, Screen):
         *MOVE_BINDINGS,
         Binding("f8", "verdict_page", "Verdict", id="job.verdict_page",
                 tooltip="Page through the verdict panel (its end goes back to the top)"),
+        Binding("ctrl+l", "pick_material", "Materials", show=False, id="job.materials",
+                tooltip="Search the material list (for the material field with the cursor)"),
         Binding("ctrl+z", "undo", "Undo", show=False, id="job.undo",
                 tooltip="Put back the sheet before the last change"),
         Binding("ctrl+y", "redo", "Redo", show=False, id="job.redo"),
@@ -109,6 +111,22 @@ class JobScreen(TypeAheadMixin, Screen):
     def action_verdict_page(self) -> None:
         """Show the next screenful of the verdict panel (F8), so nothing in it is out of reach."""
         self.panel.page()
+
+    def action_pick_material(self) -> None:
+        """Open the material pick-list for the material field with the cursor (else the shaft's)."""
+        from .materials import MaterialPicker
+
+        focused = self.focused
+        key = focused.id if focused is not None and focused.id in ("material", "candidate_material") \
+            else "material"
+        label = "the candidate" if key == "candidate_material" else "the shaft (and the candidate)"
+
+        def take(choice: str | None) -> None:
+            if choice:
+                self.sheet.row(key).set_value(choice)
+                self.query_one(f"#{key}").focus()
+
+        self.app.push_screen(MaterialPicker(label, self.sheet.value(key)), take)
 
     def action_undo(self) -> None:
         """Put back the sheet as it was before the last change."""
