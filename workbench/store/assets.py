@@ -32,7 +32,11 @@ def asset_history(log: Any, tag: str, *, today: str | None = None) -> tuple[Asse
     key = tag_key(tag)
     if not key:
         raise LogError("asset: give a tag, e.g. CV-07")
-    ids = [row[0] for row in _rows(log) if tag_key(row[1]) == key]
+    try:  # by the asset index (v6)
+        ids = [row[0] for row in log._read(
+            "SELECT id FROM jobs WHERE asset_key = ? AND deleted_at IS NULL ORDER BY id", (key,))]
+    except LogError:  # an older log opened read-only has no asset_key: read every asset text
+        ids = [row[0] for row in _rows(log) if tag_key(row[1]) == key]
     if not ids:
         raise LogError(f"no job in the log is for asset {tag_of(tag) or tag!r} (tags match ignoring case, "
                        "spaces, - _ . / and leading zeros)")

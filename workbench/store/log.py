@@ -19,6 +19,7 @@ from datetime import date, datetime
 from pathlib import Path
 from typing import Any
 
+from workbench.core.asset_history import tag_key
 from workbench.store import schema
 from workbench.store.compare import compare_results
 from workbench.store.paths import default_log_path, log_target
@@ -203,8 +204,8 @@ class JobLog:
         with self._write() as conn:
             conn.execute(
                 "UPDATE jobs SET asset = ?, location = ?, by = ?, note = ?, fitted = ?, fitted_on = ?, "
-                "outcome = ?, outcome_date = ?, search_text = ?, updated_at = ? WHERE id = ?",
-                (*(values[name] for name in EDITABLE_FIELDS), search, now, job_id),
+                "outcome = ?, outcome_date = ?, search_text = ?, updated_at = ?, asset_key = ? WHERE id = ?",
+                (*(values[name] for name in EDITABLE_FIELDS), search, now, tag_key(values["asset"]), job_id),
             )
             for name in changed:
                 conn.execute(

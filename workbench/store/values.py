@@ -10,6 +10,7 @@ from collections.abc import Mapping
 from datetime import date, datetime, timedelta, timezone
 from typing import Any
 
+from workbench.core.asset_history import tag_key
 from workbench.store import payload
 from workbench.store.payload import payload_json
 from workbench.store.records import META_FIELDS, OUTCOMES, DamagedRow, JobRecord, LogError
@@ -164,7 +165,7 @@ def material_of(inputs: Mapping[str, str], result: Mapping[str, Any]) -> str:
 INSERT_COLUMNS = (
     "uid", "created_at", "updated_at", "program_version", "bench", "origin", "asset", "location",
     "by", "note", "verdict", "material", "fitted", "deleted_at", "payload", "search_text",
-    "fitted_on", "outcome", "outcome_date",
+    "fitted_on", "outcome", "outcome_date", "asset_key",
 )
 """The columns of ``job_row``'s tuple, in order (``uid`` is a ``uuid.UUID``; engines adapt it)."""
 KEPT_ON_REPLACE = ("uid", "created_at", "deleted_at", "bench", "origin")
@@ -254,6 +255,7 @@ def job_row(
         ending["fitted_on"],
         ending["outcome"],
         ending["outcome_date"],
+        tag_key(text["asset"]),
     )
 
 
