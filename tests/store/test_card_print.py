@@ -160,7 +160,8 @@ def test_turning_sheets_print_one_page_per_shaft_after_the_card(browser, tmp_pat
     _assert_printed_well(pages, paper)
     card, *sheets = (_squash(p["text"]) for p in pages)
     assert "Turningsheet" not in card
-    for sheet, spec in zip(sheets, ("square40mm", "round40mmkeyed")):
-        assert "Turningsheet" in sheet and spec in sheet
+    specs = {s["role"]: _squash(s["spec"]) for s in result["shafts"]}
+    for sheet, role in zip(sheets, ("candidate", "existing")):  # the candidate's sheet first
+        assert "Turningsheet" in sheet and f"{role}{specs[role]}" in sheet
         assert "40.002-40.018" in sheet  # 40 k6 journal, +18/+2 um (JIS B 0401 / ISO 286-2)
     assert "N9" in sheets[1] and "JS9" in sheets[1]  # the keyed shaft's keyseat

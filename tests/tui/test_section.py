@@ -36,8 +36,8 @@ def test_demo_sections_share_one_absolute_scale():
     view = engine.section_view(demo_inputs(), 34, 17)
     assert view["design_torque_Nm"] == pytest.approx(DEMO_TORQUE_NM, rel=1e-4)
     shaft, candidate = _by_role(view)["shaft"], _by_role(view)["candidate"]
-    # square 40 mm: tau = T / (0.208 a^3) (Shigley 9th ed., Eq. 3-40), 0.5 %
-    assert candidate["peak_Pa"] == pytest.approx(DEMO_TORQUE_NM / (0.208 * 0.04**3), rel=5e-3)
+    # square 45 mm: tau = T / (0.208 a^3) (Shigley 9th ed., Eq. 3-40), 0.5 %
+    assert candidate["peak_Pa"] == pytest.approx(DEMO_TORQUE_NM / (0.208 * 0.045**3), rel=5e-3)
     assert candidate["peak_place"] == "mid-side"
     # the common scale is the larger peak: the keyseat's, not the square's
     assert view["scale_Pa"] == max(shaft["peak_Pa"], candidate["peak_Pa"]) == shaft["peak_Pa"]

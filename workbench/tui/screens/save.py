@@ -13,6 +13,7 @@ from textual import work
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
+from textual.content import Content
 from textual.screen import ModalScreen
 from textual.widgets import Input, Label, RadioButton, RadioSet, Static
 
@@ -134,9 +135,8 @@ class SaveScreen(TypeAheadMixin, ModalScreen[dict[str, Any] | None]):
         self.app.call_from_thread(self._done, job_id, meta, update is not None)
 
     def _failed(self, message: str) -> None:
-        from rich.text import Text
-
-        self.query_one("#save-status", Static).update(Text(f"✗ not saved: {message}"))  # never markup
+        # the message may quote the log's path: shown as written, never read as markup
+        self.query_one("#save-status", Static).update(Content(f"✗ not saved: {message}"))
 
     def _done(self, job_id: Any, meta: dict[str, str], updated: bool = False) -> None:
         self.app.notify(f"Job {job_id} updated in the job log." if updated
