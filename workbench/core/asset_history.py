@@ -27,7 +27,6 @@ Rules (stated here once, shown by the CLI and the workbench):
 from __future__ import annotations
 
 import re
-import statistics
 from dataclasses import dataclass, field
 from datetime import date, datetime
 
@@ -116,6 +115,12 @@ def _between(a: str, b: str) -> float:
     return float((_day(b) - _day(a)).days)
 
 
+def _median(values: list[float]) -> float:
+    ordered = sorted(values)
+    mid = len(ordered) // 2
+    return ordered[mid] if len(ordered) % 2 else (ordered[mid - 1] + ordered[mid]) / 2
+
+
 def build_history(jobs: list[AssetJob], *, today: str | None = None) -> AssetHistory:
     """The history of one asset from its jobs (any order): service lives, MTBR and flags."""
     ordered = sorted(jobs, key=lambda j: (j.fitted_on or j.saved_at[:10], j.saved_at, j.job_id))
@@ -138,11 +143,11 @@ def build_history(jobs: list[AssetJob], *, today: str | None = None) -> AssetHis
         else:
             lives.append(ServiceLife(job, start, start_from, end, end_from, max(0.0, _between(start, end))))
     closed = [life.days for life in lives if life.days is not None]
-    mtbr = statistics.fmean(closed) if closed else None
+    mtbr = sum(closed) / len(closed) if closed else None
     flags: list[str] = []
     if len(closed) >= SHORT_MIN_EARLIER + 1:
         last, earlier = closed[-1], closed[:-1]
-        median = statistics.median(earlier)
+        median = _median(earlier)
         if last < SHORT_FRACTION * median:
             flags.append(f"last shaft lasted {last:.0f} days, under half the median of the ones before "
                          f"({median:.0f} days)")

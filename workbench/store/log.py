@@ -12,7 +12,6 @@ it was.
 from __future__ import annotations
 
 import os
-import uuid
 from collections.abc import Iterable, Iterator, Mapping
 from contextlib import AbstractContextManager
 from datetime import date, datetime
@@ -128,7 +127,7 @@ class JobLog:
         """Insert one job row (INSERT_COLUMNS) inside ``_write``; returns its id."""
         raise NotImplementedError
 
-    def _uid_param(self, uid: uuid.UUID) -> Any:
+    def _uid_param(self, uid: Any) -> Any:
         """A uid as this engine stores it."""
         raise NotImplementedError
 
@@ -168,7 +167,7 @@ class JobLog:
         fitted_on: str = "",
         outcome: str = "",
         outcome_date: str = "",
-        uid: str | uuid.UUID | None = None,
+        uid: str | Any | None = None,
         bench: str | None = None,
     ) -> int:
         """Store one job durably; returns its id. ``inputs`` are kept exactly as typed.
