@@ -18,6 +18,7 @@ from hypothesis import HealthCheck, example, given, settings
 from hypothesis import strategies as st
 
 from workbench.cli import EXIT_BAD_INPUT, main
+from workbench.field_names import option_for
 from workbench.job import INPUT_KEYS, JobInputError, evaluate_inputs, stock_inputs, substitute_inputs
 
 POWER_JOB = {
@@ -194,7 +195,7 @@ def test_explicit_cases_through_main(capsys, extra, field, fragment):
     assert out == ""
     assert "Traceback" not in err
     assert len(err.splitlines()) == 1, err
-    assert err.startswith(f"shaftbench: {field}: "), err
+    assert err.startswith(f"shaftbench: {option_for(field)}: "), err
     assert fragment in err
 
 
@@ -208,7 +209,7 @@ def test_explicit_cases_in_a_process(extra, field, fragment):
     assert proc.stdout == ""
     assert "Traceback" not in proc.stderr
     assert proc.stderr.count("\n") == 1
-    assert proc.stderr.startswith(f"shaftbench: {field}: ") and fragment in proc.stderr
+    assert proc.stderr.startswith(f"shaftbench: {option_for(field)}: ") and fragment in proc.stderr
 
 
 @pytest.mark.parametrize("grade", ["1045", "c45"])

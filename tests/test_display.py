@@ -62,7 +62,7 @@ def test_number_and_factor_edge_cases():
     ("parts", "spec"),
     [
         (("round", "40", "", "keyed", "machined"), "round 40mm keyed"),
-        (("square", "40", "", "keyed", "machined"), "square 40mm keyed"),  # keyseat in its turned hub seat
+        (("square", "40", "", "keyed", "machined"), "square 40mm keyed"),  # keyseat in the turned seat (issue 8)
         (("tube", "60", "50", "plain", "ground"), "tube 60mm/50mm ground"),
         (("flat", "50", "20", "plain", "machined"), "flat 50mm x 20mm"),
         (("round", "1-1/4in", "", "plain", "machined"), "round 1-1/4in"),

@@ -25,7 +25,8 @@ DOCSTRING_FORMS = [
     ("hex 27mm", "hex", 0.027, 0.0, False, "iso", "machined", "none"),
     ("round 1-1/4in keyed ground", "round", 1.25 * IN, 0.0, True, "ansi", "ground", "none"),
     ("round 40mm keyed sharp-shoulder", "round", 0.040, 0.0, True, "iso", "machined", "sharp"),
-    ('round 1 1/4" key 1/4x1/8in', "round", 1.25 * IN, 0.0, True, "ansi", "machined", "none"),
+    ('round 1 1/4" keyseat 1/4x1/8in', "round", 1.25 * IN, 0.0, True, "ansi", "machined", "none"),
+    ('round 1 1/4" key 5/16x5/16in', "round", 1.25 * IN, 0.0, True, "ansi", "machined", "none"),
     # size forms named in the docstring and DEVELOPERS.md
     ("round 1.25in", "round", 1.25 * IN, 0.0, False, "ansi", "machined", "none"),
     ("round 1.25 in", "round", 1.25 * IN, 0.0, False, "ansi", "machined", "none"),
@@ -56,10 +57,12 @@ def test_spec_forms(spec, profile, size_m, second_m, keyed, standard, finish, sh
 
 
 def test_explicit_key_size():
-    g = parse_spec('round 1 1/4" key 1/4x1/8in')
+    """``keyseat WxD`` is the seat; an inch seat's depth is at the side wall (ANSI B17.1), stored at
+    the centreline: + r - sqrt(r^2 - (b/2)^2) = 0.625 - sqrt(0.625^2 - 0.125^2) = 0.012627 in (geometry)."""
+    g = parse_spec('round 1 1/4" keyseat 1/4x1/8in')
     assert g.key_width_m == pytest.approx(0.25 * IN, rel=1e-12)
-    assert g.key_depth_m == pytest.approx(0.125 * IN, rel=1e-12)
-    g = parse_spec("round 35mm key 10x5mm")
+    assert g.key_depth_m == pytest.approx((0.125 + 0.625 - (0.625**2 - 0.125**2) ** 0.5) * IN, rel=1e-12)
+    g = parse_spec("round 35mm keyseat 10x5mm")
     assert (g.key_width_m, g.key_depth_m) == (pytest.approx(0.010), pytest.approx(0.005))
 
 
@@ -91,7 +94,7 @@ def test_every_finish_word(finish):
         ("flat 50mm", "width x thickness"),
         ("round 35mm keyed polished", "unknown word"),
         ("round 35mm polished", "polished"),  # a stray first word is read as part of the unit
-        ("round 35mm key", "'key' needs width x depth"),
+        ("round 35mm key", "'key' needs its size"),
         ("round 1/0in", "divides by zero"),
     ],
 )
@@ -137,6 +140,8 @@ def test_round_trip_metric_tenths(profile, size, words):
     """Sizes to 0.1 mm below 100 mm survive format -> parse unchanged."""
     if profile != "round":
         words = [w for w in words if w != "keyed"]
+    groups = {w: ("finish" if w in FINISHES else "shoulder" if w.endswith("shoulder") else w) for w in words}
+    words = list({groups[w]: w for w in words}.values())  # each word once: a repeated word is refused
     g = parse_spec(f"{profile} {size:g}mm {' '.join(words)}")
     assert parse_spec(format_spec(g)) == g
 

@@ -115,3 +115,37 @@ def test_keyed_seat_on_a_square_candidate_gets_the_seats_key(capsys):
     # DIN 6885-1: a 40 mm seat (38-44 mm) takes a 12 x 8 key, t1 = 5.0 mm (shop data, V)
     assert seat["diameter_m"] == pytest.approx(0.040)
     assert k["key_width_m"] == pytest.approx(0.012) and k["depth_m"] == pytest.approx(0.035)
+
+
+from hypothesis import given, settings, strategies as st  # noqa: E402
+
+
+@settings(max_examples=40, deadline=None)
+@given(key=st.sampled_from(["bearing", "journal_class", "seat_class", "key_fit", "bearing_mounting"]),
+       text=st.one_of(st.text(max_size=10), st.sampled_from(["6207", "22210K", "k6", "H7", "zc18", "j9", "h1"])))
+def test_typed_options_never_give_a_traceback(key, text):
+    """Whatever is typed in a turning-sheet option: a result with a sheet, or one JobInputError line."""
+    from workbench.demo import demo_inputs
+    from workbench.job import JobInputError, evaluate_inputs
+
+    try:
+        result = evaluate_inputs({**demo_inputs(), key: text})
+    except JobInputError as err:
+        assert "\n" not in str(err)
+        return
+    assert all(s["turning"] for s in result["shafts"])
+
+
+def test_inch_shaft_gets_an_ansi_keyseat_and_inch_limits(capsys):
+    # 1-1/4 in shaft: 1/4 in square key, depth h/2 = 1/8 in (ANSI B17.1 via Shigley 9th ed. Table 7-6, V);
+    # keyseat width +0.002/-0 in, depth +0.010 in (ANSI B17.1, from memory); 31.75 k6 = +18/+2 um (30-50)
+    assert main(["check", "--torque", "200 N*m", "--shaft", "round 1-1/4in keyed", "--json"]) == 0
+    shaft = json.loads(capsys.readouterr().out)["shafts"][0]
+    k = shaft["keyseat"]
+    assert k["standard"] == "ANSI B17.1"
+    assert k["width_min_m"] == pytest.approx(0.25 * 0.0254) and k["width_max_m"] == pytest.approx(0.252 * 0.0254)
+    assert k["depth_m"] == pytest.approx(1.125 * 0.0254) and k["depth_tolerance_m"] == pytest.approx(0.010 * 0.0254)
+    assert k["length_m"] is None  # a coupling with no hub length given: not known, not zero
+    journal = next(r for r in shaft["turning"] if r["step"] == "journal")
+    assert journal["max_in"] == pytest.approx(round((31.75 + 0.018) / 25.4, 4))
+    assert journal["min_in"] == pytest.approx(round((31.75 + 0.002) / 25.4, 4))

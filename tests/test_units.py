@@ -4,8 +4,8 @@ Conversion factors and their sources:
 - 1 hp (mechanical, 550 ft*lbf/s) = 745.69987 W — NIST SP 811 (2008), Appendix B.8/B.9.
 - 1 in = 0.0254 m exactly — NIST SP 811, Appendix B (international inch, 1959).
 - 1 lbf = 4.4482216 N — NIST SP 811, Appendix B; so 1 lbf*in = 0.11298483 N*m.
-- 1 rpm = 1 rev/min; a plain frequency in Hz is revolutions per second (our convention, stated
-  in units._to_si), so 24 Hz = 24 * 60 rpm = 1440 rpm exactly.
+- 1 rpm = 1 rev/min; 24 rev/s = 24 * 60 rpm = 1440 rpm exactly. A plain frequency (Hz) is refused
+  for a shaft speed (workbench.field_rules: Hz on a nameplate is the supply frequency).
 """
 
 from __future__ import annotations
@@ -62,13 +62,14 @@ def test_ten_hp_is_7457_watts():
         ("1450 rpm", 1450.0),
         ("1450 RPM", 1450.0),
         ("1450", 1450.0),  # bare number: rpm
-        ("24 Hz", 1440.0),  # Hz read as rev/s (convention in units._to_si)
+        ("24 rev/s", 1440.0),  # revolutions per second
+        ("1450 r/min", 1450.0), ("1450 U/min", 1450.0), ("1450 1/min", 1450.0),  # nameplate spellings
         ("24 rps", 1440.0),
         ("2*pi rad/s", None),  # not a number first: must be refused, see below
     ],
 )
 def test_speed(text, expected_rpm):
-    """Speed to rpm: 24 Hz = 24 rev/s * 60 s/min = 1440 rpm (exact, tolerance 1e-9 rpm)."""
+    """Speed to rpm: 24 rev/s * 60 s/min = 1440 rpm (exact, tolerance 1e-9 rpm)."""
     if expected_rpm is None:
         with pytest.raises(QuantityError):
             parse_quantity("speed", text, SPEED, "rpm")

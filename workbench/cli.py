@@ -3,7 +3,7 @@
     shaftbench [--demo] [--log PATH]        open the workbench (Textual)
     shaftbench check   [job options] [--json] [--save ...]
     shaftbench substitute --shaft SPEC [--json]
-    shaftbench stock --profile square [--system metric] [--materials a,b] [job options] [--json]
+    shaftbench stock --profile square [--units metric] [--materials a,b] [job options] [--json]
     shaftbench log ...                      the job log (list, show, export, import, card, ...)
     shaftbench fit SIZE CLASS [--measured LEN ...] [--json]   ISO 286 limits and fits (cli_fit.py)
 
@@ -25,11 +25,16 @@ EXIT_BAD_INPUT = 2
 # (option, input key, help). Every option is a string exactly as typed; the job contract reads it.
 JOB_OPTIONS = (
     ("--power", "power", "motor nameplate power, e.g. '7.5 kW' or '10 hp' (bare number: kW)"),
-    ("--speed", "speed", "motor nameplate speed, e.g. '1450 rpm' (bare number: rpm)"),
+    ("--speed", "speed", "motor nameplate speed, e.g. '1450 rpm', '1450 r/min', '24 rev/s' (bare number: rpm; "
+     "Hz is refused: on a nameplate it is the supply frequency)"),
     ("--torque", "torque", "torque at the shaft instead of power and speed, e.g. '50 N*m', '400 lbf*in'"),
-    ("--ratio", "ratio", "speed reduction motor -> shaft (default 1)"),
+    ("--ratio", "ratio", "drive ratio = motor speed / shaft speed: '25' or '25:1' a reduction (motor:shaft turns), "
+     "'1:1.4' a speed-up; '1/25' is refused as ambiguous (default 1)"),
     ("--efficiency", "efficiency", "drive efficiency, '0.95' or '95%%' (default 1)"),
-    ("--service-factor", "service_factor", "service factor of the driven machine's duty (default 1)"),
+    ("--service-factor", "service_factor", "service factor for the driven machine's duty; overrides --duty "
+     "(none given: 1.0 assumed and said in the warnings; below 1.0 the shaft is checked at 1.0)"),
+    ("--duty", "duty", "driven machine's duty, picks the service factor from the AGMA table: '[MACHINE-]LOAD HOURS', "
+     "LOAD uniform | moderate | heavy | extreme, HOURS a day, e.g. 'conveyor-uniform 10h', 'crusher-heavy 24h'"),
     ("--peak-factor", "peak_factor", "start/peak torque as a multiple of running torque (default 2; NEMA design B motors start at 0.7-2.75x full-load torque, EASA after NEMA MG 10)"),
     ("--mount", "mount", "coupling | sprocket | timing-belt | gear | vbelt | flat-belt (default coupling)"),
     ("--pitch-diameter", "pitch_diameter", "pitch diameter of the pulley/sprocket/gear (bare: mm)"),
@@ -104,9 +109,9 @@ def _add_job_options(parser: argparse.ArgumentParser, only: tuple[str, ...] | No
                            help="the candidate runs through square-bore bearings and hubs as it is: no journal, no keyseat")
 
 
-def _add_output_options(parser: argparse.ArgumentParser) -> None:
+def _add_output_options(parser: argparse.ArgumentParser, units_help: str = "units of the report") -> None:
     parser.add_argument("--json", action="store_true", help="print one JSON object (SI units) instead of the report")
-    parser.add_argument("--units", choices=("metric", "inch"), default="metric", help="units of the report")
+    parser.add_argument("--units", choices=("metric", "inch"), default="metric", type=str.lower, help=units_help)
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -138,10 +143,12 @@ def build_parser() -> argparse.ArgumentParser:
 
     stock = commands.add_parser("stock", help="check standard stock sizes and find the smallest that passes")
     _add_job_options(stock)
-    _add_output_options(stock)
+    _add_output_options(stock, "metric | inch: the stock sizes searched and the report's units (default metric)")
     stock.add_argument("--demo", action="store_true", help="start from the demo job")
     stock.add_argument("--profile", default="round", help="round | square | flat | hex | tube (default round)")
-    stock.add_argument("--system", default="metric", help="metric | inch (default metric)")
+    # the older name of --units, kept so that scripts written for it still run; not in --help
+    stock.add_argument("--system", dest="units", choices=("metric", "inch"), type=str.lower,
+                       help=argparse.SUPPRESS)
     stock.add_argument("--materials", metavar="KEYS", help="comma-separated material keys (default: the job's)")
     stock.add_argument("--all", action="store_true", help="list every size, not only up to the first passes")
     stock.add_argument("--keyed", action="store_true",
@@ -239,7 +246,7 @@ def run_stock(args: argparse.Namespace) -> int:
     from workbench.job import stock_inputs
 
     keys = [k.strip() for k in args.materials.split(",") if k.strip()] if args.materials else None
-    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.system.lower(), keys, keyed=args.keyed)
+    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.units, keys, keyed=args.keyed)
     if not args.all:
         result = {**result, "rows": _up_to_first_passes(result["rows"])}
     if args.json:
@@ -278,6 +285,11 @@ def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
     func = getattr(args, "func", None) or run_workbench
+    if "list" in (str(getattr(args, "material", "") or "").lower(),
+                  str(getattr(args, "candidate_material", "") or "").lower()):
+        from workbench.cli_materials import print_material_list
+
+        return print_material_list(json_out=bool(getattr(args, "json", False)))
     try:
         code = func(args)
         sys.stdout.flush()  # a closed pipe or full disk shows here, not as "Exception ignored" at exit
@@ -291,7 +303,11 @@ def main(argv: list[str] | None = None) -> int:
         from workbench.job import JobInputError
         from workbench.store.log import LogError
 
-        if isinstance(err, (JobInputError, LogError)):
+        if isinstance(err, JobInputError):  # name the option, not the internal key (--pitch-diameter)
+            from workbench.field_names import option_for
+
+            err = f"{option_for(err.field)}: {err.message}"
+        if isinstance(err, (str, LogError)):
             sys.stderr.write(f"shaftbench: {cut(' '.join(str(err).split()), MESSAGE_LIMIT)}\n")
             return EXIT_BAD_INPUT
         if isinstance(err, OSError) and err.errno is not None:

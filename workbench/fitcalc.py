@@ -180,7 +180,8 @@ def fit_text(result: dict) -> str:
         thou = by / 0.0254 * 1000
         where = ("within the limits" if result["within"] else
                  f"{'over the max' if by > 0 else 'under the min'} by {abs(um):.1f} um ({abs(thou):.2f} thou)")
-        lines.append(f"measured {_both(result['measured_m'], inch)} at 20 degC: {where} — {result['decision']}")
+        at = " (referred to 20 degC)" if result.get("part_temperature_C") is not None else ""
+        lines.append(f"measured {_both(result['measured_m'], inch)}{at}: {where} — {result['decision']}")
         if result.get("uncertainty_m"):
             lines.append(f"acceptance zone narrowed by the uncertainty (ISO 14253-1): "
                          f"{_both(result['acceptance_min_m'], inch)} ... {_both(result['acceptance_max_m'], inch)}")

@@ -19,6 +19,8 @@ from workbench.core.loads import Mount
 from workbench.core.tables import material, material_for_size, materials, mount_factors
 from workbench.core.layout import LayoutError
 from workbench.job_layout import layout_dict, moment_diagram_dict, parse_layout, step_fields, with_plans
+from workbench.field_names import option_for
+from workbench.readings import collecting, note
 from workbench.specs import parse_spec
 from workbench.units import (
     DENSITY,
@@ -37,7 +39,7 @@ from workbench.units import (
 INPUT_KEYS = (
     "power", "speed", "torque", "ratio", "efficiency", "service_factor", "peak_factor",
     "mount", "pitch_diameter", "overhang", "shaft", "candidate", "material", "candidate_material",
-    "required_sf", "criterion", "reliability", "twist_limit",
+    "required_sf", "criterion", "reliability", "twist_limit", "duty",
     # the layout and the steps (issue 8); see workbench/job_layout.py
     "bearing_span", "bearing_type", "element_position", "load_from_bearing", "hub_length", "element_mass",
     "journal", "seat", "fillet", "candidate_journal", "candidate_seat", "candidate_fillet",
@@ -84,13 +86,25 @@ def _number(inputs, key, default, low, high) -> float:
 
 
 def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
-    """A material from the table by key (``1045-cd``; ``c45-qt`` picks the row for the bar size)
-    or typed in: ``custom Sy=350MPa Sut=600MPa [E=207GPa G=79.3GPa rho=7850]``."""
+    """A material from the table by key (``1045-cd``; ``c45-qt`` picks the row for the bar size),
+    by a common designation (``EN19``, ``C45``, ``1045``: see ``data/material_names.csv``; the
+    shaft's notes say how it was read), or typed in:
+    ``custom Sy=350MPa Sut=600MPa [E=207GPa G=79.3GPa rho=7850]``."""
+    from workbench.core.material_names import designation, grade_keys, nearest_names
+
     text = text.strip()
     if text.lower().startswith("custom"):
         return _custom_material(field, text)
+    named = designation(text)
+    key = named.key if named is not None else text.lower()
+    if named is None and key not in materials() and key not in grade_keys():
+        close = nearest_names(text)
+        hint = f"; did you mean {', '.join(close)}?" if close else ""
+        raise QuantityError(field, f"unknown material {text!r}{hint} (--material list shows every name)")
+    grade = _size_ranged_grade(key)
+    if grade and not materials()[key].covers(size_m):
+        key = grade  # another size range of the same grade: the row for this bar is picked
     try:
-        key = text.lower()
         row = material(key) if key in materials() else material_for_size(key, size_m)
     except KeyError as err:
         raise QuantityError(field, str(err.args[0])) from None
@@ -101,9 +115,12 @@ def _custom_material(field: str, text: str) -> MaterialProps:
     values = {}
     for part in text.split()[1:]:
         name, sep, value = part.partition("=")
-        if not sep:
+        if not sep or not name.strip() or not value.strip():
             raise QuantityError(field, f"custom material needs NAME=VALUE pairs, not {part!r}")
-        values[name.strip().lower()] = value
+        key = name.strip().lower()
+        if key in values:
+            raise QuantityError(field, f"custom material gives {name.strip()} twice; give each value once")
+        values[key] = value
     need = {"sy", "sut"}
     if not need <= values.keys():
         raise QuantityError(field, "custom material needs at least Sy=... and Sut=... (e.g. custom Sy=350MPa Sut=600MPa)")
@@ -113,20 +130,30 @@ def _custom_material(field: str, text: str) -> MaterialProps:
         raise QuantityError(field, "custom material: Sy must not exceed Sut")
     g = parse_quantity(field, values.pop("g", "79.3 GPa"), STRESS, "GPa", low=10e9, high=200e9)
     rho = parse_quantity(field, values.pop("rho", "7850"), DENSITY, "kg/m^3", low=1000.0, high=20000.0)
-    values.pop("e", None)
+    if "e" in values:  # parsed so that a typo is refused; the checks take G (twist) and E = 2 G (1 + nu)
+        parse_quantity(field, values.pop("e"), STRESS, "GPa", low=20e9, high=500e9)
     if values:
         raise QuantityError(field, f"custom material: unknown {', '.join(values)} (use Sy, Sut, G, E, rho)")
     return MaterialProps("custom", f"custom (Sy {sy / 1e6:g} MPa, Sut {sut / 1e6:g} MPa)", sut, sy, g, rho)
 
 
 def _mount(inputs: Mapping[str, str]) -> Mount:
-    element = _given(inputs, "mount").lower() or "coupling"
+    element = _given(inputs, "mount").lower()
+    if not element:
+        for key in ("pitch_diameter", "overhang"):
+            if _given(inputs, key):
+                raise QuantityError("mount", f"is not given, but {option_for(key)} is: name the element that carries "
+                                             "it (vbelt, sprocket, gear, timing-belt, flat-belt) or leave it out")
+        element = "coupling"
     element = MOUNT_ALIASES.get(element, element)
     factors = mount_factors()
     if element not in factors:
         raise QuantityError("mount", f"unknown element {element!r}; expected one of {', '.join(factors)}")
     factor = factors[element].load_factor
     if factor == 0.0:
+        for key in ("pitch_diameter", "overhang"):
+            if _given(inputs, key):
+                note(key, f"ignored: a {element} carries no side load")
         return Mount(element, 0.0, 0.0, 0.0)
     pd_text, oh_text = _given(inputs, "pitch_diameter"), _given(inputs, "overhang")
     if not pd_text:
@@ -134,6 +161,10 @@ def _mount(inputs: Mapping[str, str]) -> Mount:
     between = (_given(inputs, "element_position").lower() == "between")
     if not oh_text and not between:
         raise QuantityError("overhang", f"is needed for a {element}: bearing to load line (e.g. 60 mm)")
+    from workbench.spec_rules import question_inch_job
+
+    question_inch_job("pitch_diameter", pd_text, inputs)
+    question_inch_job("overhang", oh_text, inputs)
     pitch = parse_quantity("pitch_diameter", pd_text, LENGTH, "mm", low=5e-3, high=3.0)
     overhang = parse_quantity("overhang", oh_text, LENGTH, "mm", high=2.0, allow_zero=True) if oh_text else 0.0
     return Mount(element, factor, pitch, overhang)
@@ -142,11 +173,14 @@ def _mount(inputs: Mapping[str, str]) -> Mount:
 def _drive(inputs: Mapping[str, str]):
     torque_text = _given(inputs, "torque")
     power_text, speed_text = _given(inputs, "power"), _given(inputs, "speed")
-    ratio = _number(inputs, "ratio", 1.0, 0.02, 500.0)
+    from workbench.field_rules import parse_ratio, question_speeds, service_factor_for_shaft
+
+    ratio = parse_ratio("ratio", _given(inputs, "ratio"))
     efficiency = _fraction(inputs, "efficiency", 1.0, 0.3, 1.0)
-    service = _number(inputs, "service_factor", 1.0, 0.5, 5.0)
+    service = service_factor_for_shaft(_given(inputs, "service_factor"), _given(inputs, "duty"))
     peak = _number(inputs, "peak_factor", 2.0, 1.0, 6.0)
     speed = parse_quantity("speed", speed_text, SPEED, "rpm", low=1.0, high=30000.0) if speed_text else None
+    question_speeds(speed, ratio)
     if torque_text:
         if power_text:
             raise QuantityError("torque", "give either a torque or power and speed, not both")
@@ -176,6 +210,27 @@ def _settings(inputs: Mapping[str, str]) -> Settings:
     )
 
 
+def check_spec_reading(key: str, spec: str, geometry, inputs: Mapping[str, str]) -> None:
+    """Refuse a keyseat that cannot be checked; warn on bare numbers in an inch job and on a hex
+    size that reads like an across-corners measurement (workbench.spec_rules)."""
+    from workbench.core.keyseat_factors import KeyseatRefused, read_keyseat
+    from workbench.spec_rules import question_hex, question_inch_job
+
+    if geometry.keyed and geometry.profile in ("round", "tube"):
+        try:
+            reading = read_keyseat(geometry)
+        except KeyseatRefused as err:
+            raise QuantityError(key, str(err)) from None
+        if reading.case == "thin":
+            note(key, f"thin wall under the keyseat ({reading.ligament_m * 1e3:.3g} mm under a "
+                      f"{reading.depth_m * 1e3:.3g} mm seat): keyseat factors scaled by the torsion solver")
+        elif reading.case == "non-standard":
+            note(key, "non-standard keyseat: handbook factors scaled by the torsion solver's ratio to the standard seat")
+    question_inch_job(key, spec, inputs)
+    if geometry.profile == "hex":
+        question_hex(key, geometry)
+
+
 def parse_cases(inputs: Mapping[str, str]) -> list[ShaftCase]:
     """The shafts of a job (existing first), with their materials; raises QuantityError."""
     cases = []
@@ -185,6 +240,7 @@ def parse_cases(inputs: Mapping[str, str]) -> list[ShaftCase]:
         if not spec:
             continue
         geometry = parse_spec(spec, key)
+        check_spec_reading(key, spec, geometry, inputs)
         text = (_given(inputs, "candidate_material") or mat_text) if role == "candidate" else mat_text
         field = "candidate_material" if role == "candidate" and _given(inputs, "candidate_material") else "material"
         cases.append(ShaftCase(role, geometry, parse_material(field, text, geometry.size_m)))
@@ -198,8 +254,16 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
 
     With ``solver``, each keyed shaft also gets ``keyseat_solver``: the numerical solver's peak
     shear at the keyseat beside the handbook Kts estimate (the checks keep the handbook basis).
-    Raises JobInputError naming the field for anything that cannot be used.
+    Raises JobInputError naming the field for anything that cannot be used. ``warnings`` lists,
+    one line each, every assumption or doubtful reading of the inputs that did not stop the check.
     """
+    with collecting() as notes:
+        result = _evaluate_inputs(inputs, solver=solver)
+    result["warnings"] = notes + [w for w in result.get("warnings", []) if w not in notes]
+    return result
+
+
+def _evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
     unknown = [k for k in inputs if k not in INPUT_KEYS]
     if unknown:
         raise JobInputError(unknown[0], f"is not a job input (known: {', '.join(INPUT_KEYS)})")
@@ -218,7 +282,10 @@ def evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict:
     if solver:
         for shaft, case, check in zip(shafts, cases, checks):
             if case.geometry.keyed and case.geometry.profile in ("round", "tube"):
-                shaft["keyseat_solver"] = keyseat_solver(case.geometry, check, loads.design_torque_Nm)
+                try:
+                    shaft["keyseat_solver"] = keyseat_solver(case.geometry, check, loads.design_torque_Nm)
+                except ValueError as err:  # a section the solver cannot build: a message, never a traceback
+                    raise JobInputError("shaft" if case.role == "existing" else "candidate", str(err)) from None
     result = {
         "program": {"name": "shaftbench", "version": __version__},
         "inputs": {k: str(v) for k, v in inputs.items()},
@@ -319,10 +386,12 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "shear_yield_safety_factor": _finite(check.shear_yield_safety_factor),
         "fatigue_safety_factor": _finite(check.fatigue_safety_factor),
         "verdict": check.verdict,
+        "buckling_safety_factor": None if check.buckling_shear_Pa is None else _finite(check.buckling_safety_factor),
+        "buckling_shear_stress_Pa": check.buckling_shear_Pa,
         "governing": check.governing,
         "why": check.why,
         "methods": check.methods,
-        "notes": _material_notes(case),
+        "notes": _material_notes(case) + _reading_notes(case, inputs),
         **step_fields(check),
     }
 
@@ -355,6 +424,33 @@ def _modulus(case: ShaftCase) -> float:
     return row.E_Pa if row is not None else 207e9
 
 
+def _size_ranged_grade(key: str) -> str:
+    """``c45-qt`` for a size-ranged row key ``c45-qt-16-40``; "" for any other key."""
+    import re
+
+    if key not in materials() or materials()[key].size_max_m is None:
+        return ""
+    match = re.fullmatch(r"(.+)-\d+(?:\.\d+)?-\d+(?:\.\d+)?", key)
+    return match.group(1) if match else ""
+
+
+def _reading_notes(case: ShaftCase, inputs: Mapping[str, str]) -> list[str]:
+    """How a material designation (EN19, C45…) typed for this shaft was read, if one was; and
+    the size-range row picked when the one typed is for another bar size."""
+    from workbench.core.material_names import reading_note
+
+    text = _given(inputs, "material") or DEFAULT_MATERIAL
+    if case.role == "candidate":
+        text = _given(inputs, "candidate_material") or text
+    typed = text.strip().lower()
+    if _size_ranged_grade(typed) and typed != case.material.key:
+        return [f"{typed} is the row for another bar size; this {case.geometry.size_m * 1000:g} mm bar "
+                f"takes {case.material.key} (the row is picked by the bar size: type "
+                f"{_size_ranged_grade(typed)})"]
+    note = reading_note(text, case.material.key)
+    return [note] if note else []
+
+
 def _material_notes(case: ShaftCase) -> list[str]:
     """Cautions about the material row: strengths that hold for another bar size."""
     row = materials().get(case.material.key)
@@ -375,6 +471,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
     ``{"existing": {...}, "equivalents": [...], "fit_facts": [...], "cautions": [...]}``.
     """
     from workbench.core.substitution import HOLDS_FOR, equivalents, fit_facts
+    from workbench.measured import measured_size_text
     from workbench.specs import format_spec
 
     try:
@@ -394,7 +491,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
             "basis": eq.basis,
             "size_m": eq.geometry.size_m,
             "second_m": eq.geometry.second_m,
-            "label": format_spec(eq.geometry, system),
+            "label": measured_size_text(eq.geometry, system),  # as measured; exact in size_m
             "strength_ratio": eq.strength_ratio,
             "stiffness_ratio": eq.stiffness_ratio,
             "mass_ratio": eq.mass_ratio,

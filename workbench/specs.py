@@ -4,13 +4,21 @@ Syntax (ours):  PROFILE SIZE [WORD ...]
 
     round 35mm            tube 60mm/50mm        square 30mm
     flat 50mm x 20mm      hex 27mm              round 1-1/4in keyed ground
-    round 40mm keyed sharp-shoulder             round 1 1/4" key 1/4x1/8in
+    round 40mm keyed sharp-shoulder             round 1 1/4" key 5/16x5/16in
+    round 40mm key 12x8 (a DIN key b x h)       round 40mm keyseat 12x5mm (the seat: width x depth)
     round 25mm d-flat 2mm                       square 30mm radius 3mm
 
 SIZE: round = diameter; tube = outside/inside diameter; square = side; flat = width x thickness;
-hex = across flats. A bare number is millimetres; inch sizes accept 1.25in, 1-1/4in, 1 1/4".
-WORDS: ``keyed`` (standard keyseat for the diameter: DIN 6885-1 for metric sizes, ANSI B17.1 for
-inch sizes), ``key WxD`` (explicit keyseat width x depth), ``d-flat DEPTH`` / ``double-d DEPTH``
+hex = ACROSS FLATS (not across corners). Bare numbers (one rule): a unit written anywhere in the
+size applies to every bare number of the spec (``flat 2in x 12`` is 2 x 12 in, and the sizes of
+the words after it take it too); a spec with no unit at all is millimetres, except that a fraction
+with no unit (``round 2 1/2``) is refused — fractions are inch sizes, write ``2-1/2in``. Inch sizes
+accept 1.25in, 1-1/4in, 1 1/4"; a fraction with a metric unit (``3/8mm``) is refused.
+WORDS (each at most once): ``keyed`` (standard keyseat for the diameter: DIN 6885-1 for metric
+sizes, ANSI B17.1 for inch sizes), ``key BxH`` (the KEY, width x height as keys are designated:
+``key 12x8`` is the DIN 6885-1 12 x 8 key, whose shaft seat is 5 mm deep; it must be a listed key),
+``keyseat WxD`` (the SEAT itself: width x depth in the shaft, measured at the centreline for
+metric sizes, at the side wall for inch sizes as ANSI B17.1 does), ``d-flat DEPTH`` / ``double-d DEPTH``
 (one or two ground flats on a round), ``radius R`` / ``chamfer C`` (corners of square or flat bar),
 a finish (ground, machined, cold-drawn, hot-rolled, forged), a shoulder (sharp-shoulder,
 round-shoulder). Flats, radii and chamfers are solved numerically (no closed form exists).
@@ -31,10 +39,13 @@ _INCH = re.compile(r"(in\b|inch|\"|″|'')", re.I)
 _TUBE_SPLIT = re.compile(r"(?<=[A-Za-z\"″'])\s*/\s*")
 _TIMES = re.compile(r"\s*[x×*]\s*", re.I)
 _SIZED_WORDS = ("d-flat", "double-d", "radius", "chamfer")
-_WORDS = ("keyed", "key", *_SIZED_WORDS, *FINISHES, *_SHOULDERS)
+_WORDS = ("keyed", "keyseat", "key", *_SIZED_WORDS, *FINISHES, *_SHOULDERS)
 _WORD_RE = re.compile(r"\s(" + "|".join(re.escape(w) for w in sorted(_WORDS, key=len, reverse=True)) + r")(?=\s|$)", re.I)
 
-SPEC_HELP = "e.g. 'round 35mm', 'tube 60mm/50mm', 'square 30mm', 'flat 50mm x 20mm', 'hex 27mm', 'round 1-1/4in keyed'"
+SPEC_HELP = ("e.g. 'round 35mm', 'tube 60mm/50mm', 'square 30mm', 'flat 50mm x 20mm', 'hex 27mm' (across flats), "
+             "'round 1-1/4in keyed', 'round 40mm key 12x8' (key b x h)")
+_FRACTION_NO_UNIT = re.compile(r"\d\s*/\s*\d")
+_METRIC_FRACTION = re.compile(r"\d+\s*/\s*\d+\s*(mm|cm|m)\b", re.I)
 
 
 def parse_length(field: str, text: str, *, default_unit: str = "mm") -> float:
@@ -71,7 +82,8 @@ def parse_spec(text: str, field: str = "shaft") -> ShaftGeometry:
     try:
         return _parse_sized(field, profile, size_text, words)
     except QuantityError as err:
-        _blame_stray_word(field, profile, size_text, words, err)
+        if "fraction" not in err.message and "repeats" not in err.message:
+            _blame_stray_word(field, profile, size_text, words, err)
         raise
 
 
@@ -92,7 +104,7 @@ def _blame_stray_word(field: str, profile: str, size_text: str, words: list[str]
             continue
         raise QuantityError(
             field,
-            f"unknown word {tokens[keep]!r}; expected keyed, key WxD, d-flat, double-d, radius, chamfer, "
+            f"unknown word {tokens[keep]!r}; expected keyed, key BxH, keyseat WxD, d-flat, double-d, radius, chamfer, "
             f"a finish or a shoulder after the size",
         ) from err
 
@@ -101,6 +113,23 @@ def _parse_sized(field: str, profile: str, size_text: str, words: list[str]) -> 
     """The size part and the words after it (see parse_spec)."""
     inch = bool(_INCH.search(size_text))
     unit = "in" if inch else "mm"
+    if not re.search(r"[A-Za-z\"″']", size_text) and _FRACTION_NO_UNIT.search(size_text) and not (
+            profile == "tube" and re.fullmatch(r"\s*\d+(\.\d+)?\s*/\s*\d+(\.\d+)?\s*", size_text)):
+        raise QuantityError(field, f"{size_text!r} is a fraction with no unit; fractions are inch sizes: write "
+                                   f"{size_text.strip()}in (or the size in mm)")
+    for text in (size_text, *words):
+        if _METRIC_FRACTION.search(text):
+            raise QuantityError(field, f"{text!r}: a fraction with a metric unit; fractions are inch sizes "
+                                       "(write 3/8x3/16in, or the size in mm as decimals)")
+    seen: set[str] = set()
+    for w in words:
+        lw = w.lower()
+        if lw in _WORDS:
+            group = "keyseat" if lw in ("keyed", "key", "keyseat") else "shoulder" if lw in _SHOULDERS else (
+                "finish" if lw in FINISHES else "flats" if lw in ("d-flat", "double-d") else lw)
+            if group in seen:
+                raise QuantityError(field, f"{w!r} repeats a word already given ({group}); give each once")
+            seen.add(group)
     second = 0.0
     if profile == "tube":
         simple = re.fullmatch(r"\s*(\d+(?:\.\d+)?)\s*/\s*(\d+(?:\.\d+)?)\s*([A-Za-z\"]*)\s*", size_text)
@@ -126,15 +155,21 @@ def _parse_sized(field: str, profile: str, size_text: str, words: list[str]) -> 
         word = words[i].lower()
         if word == "keyed":
             options["keyed"] = True
-        elif word == "key":
+        elif word in ("key", "keyseat"):
             if i + 1 >= len(words):
-                raise QuantityError(field, "'key' needs width x depth, e.g. 'key 10x5mm'")
+                example = "'key 12x8' (key width x height)" if word == "key" else "'keyseat 12x5mm' (seat width x depth)"
+                raise QuantityError(field, f"'{word}' needs its size, e.g. {example}")
             key_text = words[i + 1]
             i += 1
-            width_text, depth_text = _split_pair(field, key_text, _TIMES, "key width x depth")
+            what = "key width x height" if word == "key" else "keyseat width x depth"
+            width_text, depth_text = _split_pair(field, key_text, _TIMES, what)
+            key_unit = "in" if (inch or _INCH.search(key_text)) else unit
+            first = parse_quantity(field, width_text, LENGTH, key_unit, low=0.5e-3, high=size)
+            second_ = parse_quantity(field, depth_text, LENGTH, key_unit, low=0.2e-3, high=size)
             options["keyed"] = True
-            options["key_width_m"] = parse_quantity(field, width_text, LENGTH, unit, high=size)
-            options["key_depth_m"] = parse_quantity(field, depth_text, LENGTH, unit, high=size / 2)
+            standard = "ansi" if key_unit == "in" else "iso"
+            options["key_width_m"], options["key_depth_m"] = _keyseat_from(
+                field, word, key_text, first, second_, size, standard)
         elif word in _SIZED_WORDS:
             if i + 1 >= len(words):
                 raise QuantityError(field, f"'{word}' needs a size, e.g. '{word} 3mm'")
@@ -154,7 +189,7 @@ def _parse_sized(field: str, profile: str, size_text: str, words: list[str]) -> 
         elif word in _SHOULDERS:
             options["shoulder"] = _SHOULDERS[word]
         else:
-            raise QuantityError(field, f"unknown word {words[i]!r}; expected keyed, key WxD, a finish or a shoulder")
+            raise QuantityError(field, f"unknown word {words[i]!r}; expected keyed, key BxH, keyseat WxD, a finish or a shoulder")
         i += 1
     # ``keyed`` on a square, hex or flat bar: the keyseat is cut in its turned (round) hub seat
     if options.get("keyed") and options.get("flats"):
@@ -165,6 +200,35 @@ def _parse_sized(field: str, profile: str, size_text: str, words: list[str]) -> 
     if corner and corner >= (second if profile == "flat" else size) / 2:
         raise QuantityError(field, "the corner radius or chamfer must be less than half the bar's thickness")
     return ShaftGeometry(profile=profile, size_m=size, second_m=second, key_standard="ansi" if inch else "iso", **options)
+
+
+def _keyseat_from(field: str, word: str, text: str, first: float, second: float, size: float,
+                  standard: str) -> tuple[float, float]:
+    """(seat width, seat depth at the centreline) [m] from ``key BxH`` (a listed key: its table
+    seat depth) or ``keyseat WxD`` (the seat; inch depths are at the side wall, ANSI B17.1)."""
+    from workbench.core.keyseat_factors import side_wall_to_centre_depth_m
+    from workbench.core.tables import key_sizes
+    from workbench.readings import note
+
+    name = "DIN 6885-1" if standard == "iso" else "ANSI B17.1"
+    unit, scale = ("mm", 1e3) if standard == "iso" else ("in", 1 / 0.0254)
+    if word == "key":
+        rows = [r for r in key_sizes(standard)
+                if abs(r.width_m - first) < 1e-6 and abs(r.height_m - second) < 1e-6]
+        if not rows:
+            raise QuantityError(field, f"'key {text}' is no {name} key (width x height); give the seat itself as "
+                                       f"'keyseat WxD' (width x depth in the shaft)")
+        row = rows[0]
+        depth = row.shaft_depth_m
+        centre = side_wall_to_centre_depth_m(size, row.width_m, depth) if standard == "ansi" else depth
+        note(field, f"'key {text}' read as the {name} key b x h = {first * scale:.4g} x {second * scale:.4g} {unit}: "
+                    f"shaft seat {row.width_m * scale:.4g} {unit} wide, {depth * scale:.4g} {unit} deep")
+        return row.width_m, centre
+    centre = side_wall_to_centre_depth_m(size, first, second) if standard == "ansi" else second
+    where = "at the side wall (ANSI B17.1)" if standard == "ansi" else "at the centreline"
+    note(field, f"'keyseat {text}' read as a seat {first * scale:.4g} {unit} wide, {second * scale:.4g} {unit} deep "
+                f"{where}")
+    return first, centre
 
 
 def inch_text(inches: float) -> str:
@@ -197,7 +261,11 @@ def format_spec(geometry: ShaftGeometry, system: str = "metric") -> str:
         text = f"{g.profile} {size(g.size_m)}"
     if g.keyed:
         if g.key_width_m and g.key_depth_m:
-            text += f" key {size(g.key_width_m)}x{size(g.key_depth_m)}"
+            depth = g.key_depth_m
+            if system == "inch" or g.key_standard == "ansi":
+                r = g.size_m / 2.0  # back to the side-wall depth that an inch keyseat is written with
+                depth -= r - (r * r - g.key_width_m ** 2 / 4.0) ** 0.5
+            text += f" keyseat {size(g.key_width_m)}x{size(depth)}"
         else:
             text += " keyed"
     if g.flats:

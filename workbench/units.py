@@ -74,6 +74,10 @@ _REWRITES = (
     (re.compile(r"(?<=\d)\s*IN\b"), " in"),
     (re.compile(r"\bKW\b"), "kW"),
     (re.compile(r"\bkw\b"), "kW"),
+    # revolutions as nameplates write them: r/min, U/min (German "Umdrehungen"), rev/min, rev/s
+    (re.compile(r"\b(?:r|U|revs?|revolutions?|turns?)\s*/\s*min\b"), "rpm"),
+    (re.compile(r"\b(?:r|U|revs?|revolutions?|turns?)\s*/\s*(?:s|sec)\b"), "revolution/second"),
+    (re.compile(r"\brps\b"), "revolution/second"),
 )
 # One search finds whatever any rewrite would change, so that most entries skip all of them
 # ("rpm" already written so is left out: rewriting it to itself changes nothing).
@@ -96,6 +100,8 @@ def split_number(field: str, text: str) -> tuple[float, str]:
     text = text.strip()
     if not text:
         raise QuantityError(field, "is empty; expected a number with a unit")
+    if "," in text:
+        text = _decimal_comma(field, text)
     if _ANY_REWRITE.search(text):
         for rule, replacement in _REWRITES:
             text = rule.sub(replacement, text)
@@ -118,6 +124,24 @@ def split_number(field: str, text: str) -> tuple[float, str]:
     if lowered.lstrip("+-") in ("nan", "inf", "infinity"):
         raise QuantityError(field, f"{text!r} is not a finite number")
     raise QuantityError(field, f"{text!r} does not start with a number")
+
+
+_COMMA = re.compile(r"^(?P<whole>[+-]?\d+),(?P<part>\d+)(?P<rest>(?:\s|[^\d.,]).*)?$")
+
+
+def _decimal_comma(field: str, text: str) -> str:
+    """``7,5 kW`` -> ``7.5 kW`` (a decimal comma, said in the job's warnings); refused where a
+    comma could be a thousands separator (exactly three digits after it: ``1,450``) or appears twice."""
+    from workbench.readings import note
+
+    match = _COMMA.match(text)
+    if not match or len(match["part"]) == 3:
+        raise QuantityError(
+            field, f"{text!r}: a comma here could be a decimal point or a thousands separator; "
+            "write the number without it (1450, or 7.5)")
+    read = f"{match['whole']}.{match['part']}{match['rest'] or ''}"
+    note(field, f"{text!r} read with a decimal comma as {read!r}")
+    return read
 
 
 def parse_quantity(
@@ -167,15 +191,20 @@ def _pint_si(field: str, text: str, value: float, unit_text: str, kind: Kind) ->
         raise QuantityError(
             field, f"{text!r} is not a {kind.name}; expected a {kind.name} such as {kind.examples}"
         )
+    from workbench.field_rules import check_units
+
+    check_units(field, text, kind, units)  # the refusals of each kind's trade (Hz, kWh, dBm, 1/m, ...)
     return _to_si(quantity, kind)
 
 
 def _to_si(quantity, kind: Kind) -> float:
-    """Convert to the kind's SI unit; a plain frequency (Hz) is taken as revolutions per second."""
+    """Convert to the kind's SI unit. A speed reaches here only as revolutions or an angle per time,
+    or as per-minute (``1450 1/min``, the IEC nameplate's min^-1, read as rev/min): field_rules
+    refuses plain frequencies (Hz)."""
     if kind is SPEED:
         ureg = registry()
         _, root = ureg.get_root_units(quantity.units)
-        if "radian" in repr(root):  # angular units (rpm, rad/s); else a frequency in rev/s
+        if "radian" in repr(root):  # angular units (rpm, rad/s)
             return float(quantity.to("rpm").magnitude)
         return float(quantity.to("1/minute").magnitude)
     return float(quantity.to(kind.si_unit).magnitude)

@@ -36,10 +36,14 @@ def test_verdict_follows_the_lowest_factor_and_the_required_factor():
 
 
 def test_twist_over_the_limit_reads_marginal_and_names_twist():
-    check = _check(ShaftGeometry("round", 0.060), settings_=Settings(twist_limit_deg_per_m=0.01))
+    """Twist over its limit up to 2x reads marginal; over 2x it fails (our stated rule, checks.TWIST_FAIL_MULTIPLE)."""
+    twist = _check(ShaftGeometry("round", 0.060), settings_=Settings(twist_limit_deg_per_m=50.0)).twist_deg_per_m
+    check = _check(ShaftGeometry("round", 0.060), settings_=Settings(twist_limit_deg_per_m=twist / 1.5))
     assert check.verdict == "marginal"
     assert check.governing == "twist"
     assert "twist" in check.why
+    over = _check(ShaftGeometry("round", 0.060), settings_=Settings(twist_limit_deg_per_m=twist / 2.5))
+    assert over.verdict == "fail" and over.governing == "twist"
 
 
 def test_coupling_gives_no_bending_and_torsion_only_fatigue():

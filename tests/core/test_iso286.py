@@ -160,3 +160,50 @@ def test_fit_must_be_hole_over_shaft():
         fit(0.04, "k6/H7")
     with pytest.raises(ToleranceError):
         fit(0.04, "H7")
+
+
+# --------------------------------------------------------------------------- properties
+
+from hypothesis import given, settings, strategies as st  # noqa: E402
+
+from workbench.core.iso286 import HOLE_LETTERS, SHAFT_LETTERS  # noqa: E402
+
+
+@settings(max_examples=300, deadline=None)
+@given(size_mm=st.floats(min_value=0.01, max_value=500.0), letter=st.sampled_from(SHAFT_LETTERS + HOLE_LETTERS),
+       grade=st.integers(min_value=1, max_value=18))
+def test_every_class_is_defined_or_refused_and_lies_where_its_letter_says(size_mm, letter, grade):
+    """ISO 286-1 zone positions: shafts a-h below the zero line (es <= 0), k-zc above it (ei >= 0);
+    holes A-H above (EI >= 0); the zone's width is the grade's IT; JS/js symmetric."""
+    try:
+        zone = limits(size_mm / 1000.0, f"{letter}{grade}")
+    except ToleranceError as err:
+        assert "\n" not in str(err)
+        return
+    it = tolerance_um(grade, size_mm / 1000.0)
+    assert zone.tolerance_m * 1e6 == pytest.approx(it, abs=1e-6)
+    base = letter.lower()
+    if base in ("a", "b", "c", "cd", "d", "e", "ef", "f", "fg", "g", "h"):
+        if letter.islower():
+            assert zone.upper_deviation_m <= 1e-12
+        else:
+            assert zone.lower_deviation_m >= -1e-12
+    elif base in ("k", "m", "n", "p", "r", "s", "t", "u", "v", "x", "y", "z", "za", "zb", "zc") and letter.islower():
+        assert zone.lower_deviation_m >= -1e-12
+    if base == "js":
+        assert zone.upper_deviation_m == pytest.approx(-zone.lower_deviation_m)
+
+
+@settings(max_examples=100, deadline=None)
+@given(size_mm=st.floats(min_value=1.0, max_value=500.0))
+def test_shaft_letters_climb_from_a_to_zc(size_mm):
+    """Fundamental deviations increase a -> h -> k -> zc (ISO 286-1, the position letters)."""
+    order = ["a", "b", "c", "d", "e", "f", "g", "h", "k", "m", "n", "p", "r", "s", "u", "x", "z", "za", "zb", "zc"]
+    edges = []
+    for letter in order:
+        try:
+            zone = limits(size_mm / 1000.0, f"{letter}7")
+        except ToleranceError:
+            continue
+        edges.append(zone.upper_deviation_m if letter in "abcdefgh" else zone.lower_deviation_m)
+    assert edges == sorted(edges)

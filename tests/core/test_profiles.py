@@ -129,8 +129,9 @@ def test_keyseat_from_the_key_table():
     width, depth, radius = P.keyseat_dimensions_m(ShaftGeometry("round", 0.035, keyed=True))
     assert width == pytest.approx(0.010, rel=1e-9)
     assert depth == pytest.approx(0.005, rel=1e-9)
-    # default radius r = 0.02 d (Shigley 9th ed. Table 7-1 assumption; common practice)
-    assert radius == pytest.approx(0.02 * 0.035, rel=1e-12)
+    # default radius: DIN 6885-1 keyseat bottom radius r1 min for b = 10 mm, 0.25 mm (from memory;
+    # data/keyseat_radii.csv) — not 0.02 d = 0.7 mm, which is larger than the standard allows
+    assert radius == pytest.approx(0.00025, rel=1e-12)
 
 
 def test_explicit_keyseat_dimensions_win():

@@ -64,13 +64,15 @@ def test_flats_weaken_a_round_and_corners_matter_little():
 
 
 def test_keyseat_solver_beside_the_handbook_factor():
-    """DIN 6885 keyseat in a 40 mm round (12 x 5, r = 0.02 d): the solver's Kts lies below the
-    handbook's 3.0 (Shigley 9th ed., Table 7-1, which also covers the end-milled run-out) and above
-    2 (Peterson's Stress Concentration Factors, keyseat in torsion, r/d = 0.02, about 2.3-2.6;
-    from memory). The checks keep the handbook basis."""
+    """DIN 6885 keyseat in a 40 mm round (12 x 5 seat, bottom radius r1 = 0.25 mm per DIN 6885-1,
+    r/d = 0.006): the solver's Kts lies above 2 (Peterson's Stress Concentration Factors, keyseat
+    in torsion, about 2.3-2.6 already at r/d = 0.02; from memory) and, with the standard's small
+    radius, near the handbook's 3.0 (Shigley 9th ed., Table 7-1), within 20 %. The checks keep the
+    handbook basis for a standard seat."""
     result = evaluate_inputs({"torque": "200 N*m", "shaft": "round 40mm keyed"}, solver=True)
     solved = result["shafts"][0]["keyseat_solver"]
-    assert 2.0 < solved["Kts_solver"] < solved["Kts_handbook"] == 3.0
+    assert solved["Kts_handbook"] == 3.0
+    assert 2.0 < solved["Kts_solver"] < 3.6
     assert 0.8 < solved["torsion_constant_ratio"] < 0.95
     assert result["shafts"][0]["Kts"] == 3.0
     plain = evaluate_inputs({"torque": "200 N*m", "shaft": "round 40mm keyed"})

@@ -77,7 +77,7 @@ def test_demo_square_no_longer_passes_above_the_keyed_round():
     (refused, naming the candidate); a square 40 turned to them is no stronger than the round."""
     proc = run_cli("check", "--demo", "--shaft", "round 35mm keyed", "--candidate", "square 35mm")
     assert proc.returncode == 2 and "Traceback" not in proc.stderr
-    assert proc.stderr.startswith("shaftbench: candidate: ") and "--as-bar" in proc.stderr
+    assert proc.stderr.startswith("shaftbench: --candidate: ") and "--as-bar" in proc.stderr
     result = evaluate_inputs({"power": "7.5 kW", "speed": "1460 rpm", "ratio": "3.2", "efficiency": "96%",
                               "service_factor": "1.5", "peak_factor": "2.2", "mount": "vbelt",
                               "pitch_diameter": "200 mm", "overhang": "60 mm", "shaft": "round 35mm keyed",
@@ -114,7 +114,7 @@ def test_bad_layout_input_exits_2_naming_the_option(extra, field):
     assert proc.returncode == 2, proc.stderr
     assert proc.stdout == "" and "Traceback" not in proc.stderr
     assert len(proc.stderr.splitlines()) == 1
-    assert proc.stderr.startswith(f"shaftbench: {field}: "), proc.stderr
+    assert proc.stderr.startswith(f"shaftbench: --{field.replace('_', '-')}: "), proc.stderr
 
 
 def _stiff(slope1=0.0, slope2=0.0, limit=0.001, critical=None):

@@ -23,7 +23,7 @@ PAPER_POINTS = {"a4": (595.3, 841.9), "letter": (612.0, 792.0)}
 SIZE_TOLERANCE_PT = 1.0
 MIN_TEXT_PT = 9.0
 
-LONG_TAG = "CV-07/HEAD-DRIVE-" + "X" * 120  # one unbroken word, wider than the page
+LONG_TAG = "CV-07/HEAD-DRIVE-" + "X" * 70  # one unbroken word, wider than its column
 NOTE = ("Sheared at the keyseat after two years; [bold]not markup[/bold] <b>not html</b> & co.\n"
         "Bearing on the drive end replaced at the same time.")
 
@@ -160,7 +160,8 @@ def test_turning_sheets_print_one_page_per_shaft_after_the_card(browser, tmp_pat
     _assert_printed_well(pages, paper)
     card, *sheets = (_squash(p["text"]) for p in pages)
     assert "Turningsheet" not in card
-    for sheet, spec in zip(sheets, ("square45mm", "round40mmkeyed")):
-        assert "Turningsheet" in sheet and spec in sheet
+    specs = {s["role"]: _squash(s["spec"]) for s in result["shafts"]}
+    for sheet, role in zip(sheets, ("candidate", "existing")):  # the candidate's sheet first
+        assert "Turningsheet" in sheet and f"{role}{specs[role]}" in sheet
         assert "40.002-40.018" in sheet  # 40 k6 journal, +18/+2 um (JIS B 0401 / ISO 286-2)
     assert "N9" in sheets[1] and "JS9" in sheets[1]  # the keyed shaft's keyseat

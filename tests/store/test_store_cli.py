@@ -89,8 +89,10 @@ def test_export_then_import_into_a_new_log(filled, log_path, tmp_path, fmt, caps
     assert run(["log", "import", str(out_file), "--log", str(other)]) == 0
     assert "imported 2 jobs" in capsys.readouterr().out
     with JobLog.open(log_path) as a, JobLog.open(other) as b:
-        strip = lambda rows: [{k: v for k, v in r.items() if k != "id"} for r in rows]  # noqa: E731
+        strip = lambda rows: [{k: v for k, v in r.items() if k not in ("id", "origin")} for r in rows]  # noqa: E731
         assert strip(a.export_rows()) == strip(b.export_rows())
+        # each imported job names where it came from: its bench and its id there
+        assert [r["origin"] for r in b.export_rows()] == [f"{r['bench']} #{r['id']}" for r in a.export_rows()]
 
 
 @pytest.mark.parametrize("fmt, marker", [("html", "<html"), ("svg", "<svg"), ("text", "Safety cautions")])

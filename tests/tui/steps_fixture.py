@@ -1,9 +1,10 @@
-"""A result dict with the shaft-as-steps part of the job contract, for display tests.
+"""A result dict with a fixed shaft-as-steps part of the job contract, for display tests.
 
-Display code is tested against this fixture: the demo job's real result with ``steps``, ``governing_step``, ``key``,
+The demo job's real result with its ``steps``, ``governing_step``, ``key``,
 ``critical_speed_rpm``, ``deflection_m``, ``bearing_slopes_rad``, ``layout`` and
-``moment_diagram`` shaped as the contract (issue 8) names them. The figures in the added part are
-INVENTED for drawing and layout tests only; no test checks an engineering value from here.
+``moment_diagram`` REPLACED by a fixed, invented set shaped as the contract (issue 8) names them,
+so drawing and table tests (and the profile snapshots) do not move when the calculation does. No
+test checks an engineering value from here; ``real_result()`` is the demo as computed today.
 """
 
 from __future__ import annotations
@@ -35,7 +36,6 @@ def _stepped_result() -> dict:
     torque = result["drive"]["design_torque_Nm"]
     moment = result["mount"]["side_load_N"] * 0.06
     existing, candidate = result["shafts"]
-    # the real steps have landed; display tests keep these fixed invented figures all the same
     existing["steps"] = [
         _step("body", 0.0, 0.42, 0.040, None, False, "body, round 40 mm", moment, torque, 1.0, 1.0, 5.1, 3.2),
         _step("seat", 0.34, 0.42, 0.040, None, True, "hub seat, keyed, 40 mm", moment * 0.5, torque,
@@ -55,11 +55,13 @@ def _stepped_result() -> dict:
     ]
     candidate["governing_step"] = 3
     for shaft in (existing, candidate):
-        shaft["key"] = {"shear_safety_factor": 6.1, "crush_safety_factor": 2.4, "required_length_m": 0.045}
+        shaft["key"] = {"shear_safety_factor": 6.1, "crush_safety_factor": 2.4, "required_length_m": 0.045,
+                        "key_length_m": 0.08}
+        shaft["slope_limit_rad"] = 0.001
         shaft["critical_speed_rpm"] = 9100.0
         shaft["deflection_m"] = 0.00004
         shaft["bearing_slopes_rad"] = [0.00012, 0.00035]
-    result["layout"] = {"bearings_m": [0.02, 0.32], "bearing_span_m": 0.30, "element_x_m": 0.38}
+    result["layout"] = {"bearing_x_m": [0.02, 0.32], "bearing_span_m": 0.30, "load_x_m": 0.38}
     result["moment_diagram"] = _moment_diagram(result["mount"]["side_load_N"], torque)
     return result
 
@@ -67,3 +69,11 @@ def _stepped_result() -> dict:
 def stepped_result() -> dict:
     """A fresh deep copy of the demo result with the steps part (see the module docstring)."""
     return copy.deepcopy(_stepped_result())
+
+
+def real_result() -> dict:
+    """The demo job's result as the program computes it today (steps included)."""
+    from workbench.demo import demo_inputs
+    from workbench.job import evaluate_inputs
+
+    return evaluate_inputs(demo_inputs())

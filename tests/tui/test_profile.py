@@ -16,7 +16,7 @@ from workbench.tui.widgets.shaft_profile import bearing_positions, draw_profiles
 from workbench.tui.widgets.verdict_panel import verdict_rows
 
 from .conftest import plain_text, settle
-from .steps_fixture import stepped_result
+from .steps_fixture import real_result, stepped_result
 
 SIZES = ((78, 22), (118, 38), (60, 20))
 
@@ -84,6 +84,32 @@ def test_moment_diagram_peaks_over_the_bearing_next_to_the_overhung_load():
     assert all(ch == " " for ch in lines[head + 1][int(0.39 / 0.42 * width):])  # no moment beyond the load
 
 
+def test_the_demo_as_computed_today_is_drawn():
+    """Not a fixture: the demo's real result (its layout, steps and moment diagram)."""
+    from workbench.report.steps import governing_step_name
+
+    result = real_result()
+    width = 90
+    lines = _lines(width, 30, result)
+    assert max(len(line) for line in lines) <= width and len(lines) <= 30
+    length = max(s["x_end_m"] for shaft in result["shafts"] for s in shaft["steps"])
+    for shaft in result["shafts"]:
+        role = "as found" if shaft["role"] == "existing" else "candidate"
+        block = _profile_block(lines, role)
+        assert governing_step_name(shaft)[:20] in block[0]
+        for x in result["layout"]["bearing_x_m"]:
+            assert block[-2][min(width - 1, int(x / length * width))] == "▲"
+    assert lines[0].index("↓") == int(result["layout"]["load_x_m"] / length * width)
+    # the candidate's body is larger than its journals: the drawn edge steps between them
+    candidate = next(s for s in result["shafts"] if s["role"] == "candidate")
+    body = next(s for s in candidate["steps"] if s["kind"] == "body")
+    journal = next(s for s in candidate["steps"] if s["kind"] == "journal")
+    if body["diameter_m"] > journal["diameter_m"]:
+        block = _profile_block(lines, "candidate")
+        mid = lambda step: int((step["x_start_m"] + step["x_end_m"]) / 2 / length * width)  # noqa: E731
+        assert [row[mid(body)] for row in block[1:-2]] != [row[mid(journal)] for row in block[1:-2]]
+
+
 def test_results_without_steps_say_so():
     assert "No result yet" in draw_profiles(None, 78, 22).plain
     result = stepped_result()
@@ -96,9 +122,19 @@ def test_verdict_panel_names_the_governing_step():
     result = stepped_result()
     rows = dict(verdict_rows(result, "metric"))
     assert rows["governing step"] == ["hub seat, keyed, 40 mm", "shoulder 50/40 mm"]
+    real = dict(verdict_rows(real_result(), "metric"))["governing step"]
+    assert all(name != "—" and "mm" in name for name in real)  # label + turned diameter
     for shaft in result["shafts"]:
         shaft.pop("steps")
     assert "governing step" not in dict(verdict_rows(result, "metric"))
+
+
+def test_hub_materials_on_the_sheet_follow_the_table():
+    from workbench.core.key_strength import DEFAULT_HUB_MATERIAL, hub_materials
+    from workbench.tui.fields import HUB_MATERIALS
+
+    assert sorted(HUB_MATERIALS) == sorted(hub_materials())
+    assert HUB_MATERIALS[0] == DEFAULT_HUB_MATERIAL
 
 
 def test_bearing_types_on_the_sheet_follow_the_table():
@@ -106,20 +142,19 @@ def test_bearing_types_on_the_sheet_follow_the_table():
     assert BEARING_TYPES[0] == DEFAULT_BEARING_TYPE == CHOICE_DEFAULTS["bearing_type"]
     contract_keys = ("bearing_span", "bearing_type", "element_position", "load_from_bearing", "hub_length",
                      "element_mass", "journal", "seat", "fillet", "candidate_journal", "candidate_seat",
-                     "candidate_fillet")
+                     "candidate_fillet", "driven_position", "driven_from_bearing", "driven_mass",
+                     "driven_load", "as_bar", "hub_material")
     assert all(key in FIELD_BY_KEY for key in contract_keys)
 
 
 async def test_layout_part_defaults_cost_no_keys_and_reach_the_inputs(make_app):
-    app = make_app(demo=True)
+    app = make_app()
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(pilot)
         sheet = app.job_screen.sheet
-        inputs = sheet.inputs()
-        # the demo's layout reaches the inputs; a default (overhung) is left out
-        assert inputs["bearing_span"] == "450 mm" and "element_position" not in inputs
-        sheet.row("bearing_span").set_value("")
-        assert not sheet.row("load_from_bearing").display  # overhung: no distance to ask
+        assert sheet.inputs() == {}  # every layout default is left out: the contract fills it
+        for key in ("load_from_bearing", "driven_from_bearing", "driven_mass", "driven_load"):
+            assert not sheet.row(key).display  # overhung, no driven element: nothing to ask
         for _ in range(4):
             await pilot.press("pagedown")
         assert app.focused.id == "bearing_span"
@@ -137,6 +172,11 @@ async def test_layout_part_defaults_cost_no_keys_and_reach_the_inputs(make_app):
         assert "load_from_bearing" not in sheet.inputs()
         sheet.row("candidate_fillet").set_value("1.2")
         assert sheet.inputs()["candidate_fillet"] == "1.2"
+        sheet.row("driven_position").set_value("far-end")
+        await pilot.pause()
+        assert sheet.row("driven_mass").display
+        sheet.row("driven_mass").set_value("40")
+        assert sheet.inputs()["driven_position"] == "far-end" and sheet.inputs()["driven_mass"] == "40"
 
 
 async def test_f9_opens_the_profile_and_esc_closes_it(make_app):

@@ -94,10 +94,12 @@ class ShaftCheck:
     stiffness: object = None  # StiffnessFigures (deflection, slopes, critical speed), when the span is known
     placed: object = None  # the layout placed along the shaft (workbench.core.layout.Placed)
     side_loads: tuple = ()  # (x_m, force_N) side loads at the design torque, for the moment diagram
+    buckling_safety_factor: float = math.inf  # thin tube: torsional buckling stress / shear at static torque
+    buckling_shear_Pa: float | None = None  # knocked-down buckling shear stress (workbench.core.buckling)
 
     @property
     def min_safety_factor(self) -> float:
-        return min(self.static_safety_factor, self.fatigue_safety_factor)
+        return min(self.static_safety_factor, self.fatigue_safety_factor, self.buckling_safety_factor)
 
 
 def _feature_factors(section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float]:
@@ -106,7 +108,13 @@ def _feature_factors(section: Section, tensile_Pa: float) -> tuple[str, float, f
     table = stress_raisers()
     present = []
     if g.keyed and g.profile in ("round", "tube"):
-        present.append(table["keyseat"])
+        from dataclasses import replace
+
+        from workbench.core.keyseat_factors import keyseat_scale
+
+        scale, _, _ = keyseat_scale(g)  # 1 for a standard seat in a solid round or a sound wall
+        key = table["keyseat"]
+        present.append(replace(key, Kt=key.Kt * scale, Kts=key.Kts * scale) if scale != 1.0 else key)
     if g.shoulder == "sharp":
         present.append(table["sharp-shoulder"])
     elif g.shoulder == "rounded":
@@ -127,8 +135,9 @@ def _feature_factors(section: Section, tensile_Pa: float) -> tuple[str, float, f
 
 
 def static_torque_Nm(loads: DriveLoads) -> float:
-    """The torque the static (first-cycle yield) check is made at [N*m]: the peak torque."""
-    return loads.peak_torque_Nm
+    """The torque the static (first-cycle yield) check is made at [N*m]: the larger of the peak
+    and the design torque (a service factor above the start factor still loads the shaft)."""
+    return loads.static_torque_Nm
 
 
 @dataclass(frozen=True)
@@ -216,8 +225,12 @@ def check_shaft(
     twist = math.degrees(loads.design_torque_Nm / (material.G_Pa * section.torsion_constant_m4))
     limit = twist_limit_deg_per_m(section, settings)
 
-    verdict, governing, why = _verdict(n_static, n_fatigue, twist, limit, feature, settings)
+    buckle_Pa, n_buckling = tube_buckling(section, material, static_torque_Nm(loads))
+    verdict, governing, why = _verdict(n_static, n_fatigue, twist, limit, feature, settings, n_buckling)
     methods = dict(section.methods)
+    if buckle_Pa is not None:
+        methods["buckling"] = ("thin tube, torsional buckling: long-tube elastic stress x 0.67 knock-down "
+                               "(Timoshenko & Gere 2nd ed. Sec. 11.10; NASA SP-8007; from memory)")
     methods["fatigue"] = f"{fatigue.CRITERIA[settings.criterion]}, Shigley 9th ed. Eqs. 7-5..7-14; Se by Eq. 6-18"
     methods["static"] = "first-cycle yield at peak torque, Shigley 9th ed. Eqs. 7-15/7-16"
     methods["twist"] = "theta = T/(G J) at design torque; limit " + (
@@ -253,21 +266,48 @@ def check_shaft(
         governing=governing,
         why=why,
         methods=methods,
+        buckling_safety_factor=n_buckling,
+        buckling_shear_Pa=buckle_Pa,
     )
 
 
+def tube_buckling(section: Section, material: MaterialProps, torque_Nm: float) -> tuple[float | None, float]:
+    """(knocked-down torsional buckling shear [Pa] or None, its safety factor [-]) of a thin tube at
+    ``torque_Nm``, on the nominal shear of the plain tube (workbench.core.buckling)."""
+    g = section.geometry
+    if g.profile != "tube" or torque_Nm <= 0:
+        return None, math.inf
+    from workbench.core.buckling import buckling_shear_stress_Pa, elastic_modulus_Pa
+
+    tau_cr = buckling_shear_stress_Pa(g.size_m, g.second_m, elastic_modulus_Pa(material.G_Pa))
+    if tau_cr is None:
+        return None, math.inf
+    return tau_cr, tau_cr / (torque_Nm * section.shear_per_torque_Pa_per_Nm)
+
+
+TWIST_FAIL_MULTIPLE = 2.0  # twist above 2 x its limit fails (our rule, stated); up to 2 x is marginal
+
+
 def _verdict(
-    n_static: float, n_fatigue: float, twist: float, limit: float, feature: str, settings: Settings
+    n_static: float, n_fatigue: float, twist: float, limit: float, feature: str, settings: Settings,
+    n_buckling: float = math.inf,
 ) -> tuple[str, str, str]:
-    """(verdict, governing check, one-line why) from the safety factors and the twist rate."""
+    """(verdict, governing check, one-line why) from the safety factors and the twist rate.
+
+    Twist over TWIST_FAIL_MULTIPLE (2) x its limit fails; over the limit up to that, marginal."""
     where = "in the plain bar" if feature == "plain bar" else f"at the {feature}"
     if n_fatigue <= n_static:
         governing, n, what = "fatigue", n_fatigue, f"fatigue {where}"
     else:
         governing, n, what = "static", n_static, f"yield at peak torque {where}"
+    if n_buckling < n:
+        governing, n, what = "buckling", n_buckling, "torsional buckling of the thin tube wall"
     required = settings.required_sf
     if n < required:
         return "fail", governing, f"{what}: n = {n:.2f} is below the required {required:g}"
+    if twist > TWIST_FAIL_MULTIPLE * limit:
+        return "fail", "twist", (f"twist {twist:.2f} deg/m is {twist / limit:.1f}x the {limit:.2f} deg/m limit "
+                                 f"(over {TWIST_FAIL_MULTIPLE:g}x fails; strength n = {n:.2f})")
     if twist > limit:
         return "marginal", "twist", f"twist {twist:.2f} deg/m exceeds the {limit:.2f} deg/m limit (strength n = {n:.2f})"
     if n < required * (1.0 + MARGINAL_BAND):

@@ -51,6 +51,12 @@ class DriveLoads:
     design_torque_Nm: float
     peak_torque_Nm: float
 
+    @property
+    def static_torque_Nm(self) -> float:
+        """The torque static yield is checked at: the larger of peak and design torque [N*m]
+        (a service factor above the start factor must not leave static below the design torque)."""
+        return max(self.peak_torque_Nm, self.design_torque_Nm)
+
 
 def drive_loads(
     *,

@@ -110,9 +110,10 @@ def _round_to(value: float, step: float) -> float:
 
 
 def _round_it(value_um: float) -> float:
-    """Rounding of computed IT5-IT18 values up to 500 mm (ISO 286-1:1988, Annex, rounding table
-    for standard tolerances): multiples of 1 um up to 60, 5 up to 200 (over 100), 10 up to 1000,
-    50 up to 2000, 100 up to 5000, 200 beyond."""
+    """Rounding of computed IT5-IT18 values up to 500 mm, after the rounding table for standard
+    tolerances of ISO 286-1:1988 (from memory): multiples of 1 um up to 100, 5 up to 200, 10 up to
+    1000, 50 up to 2000, 100 up to 5000, 200 beyond. Where this and the printed Table 1 differ, the
+    table row in data/iso286_table_values.csv governs."""
     for limit, step in ((100.0, 1.0), (200.0, 5.0), (1000.0, 10.0), (2000.0, 50.0), (5000.0, 100.0)):
         if value_um <= limit:
             return _round_to(value_um, step)
@@ -120,8 +121,8 @@ def _round_it(value_um: float) -> float:
 
 
 def _round_it_fine(value_um: float) -> float:
-    """Rounding of the IT1-IT4 values (ISO 286-1 gives them to 0.1 um below 1 um... to 1 um):
-    0.1 um up to 1.2, 0.5 um up to 3, 1 um above (the printed table then governs)."""
+    """Rounding of computed IT1-IT4 values: 0.1 um up to 1.2 um, 0.5 um up to 3 um, 1 um above
+    (the printed ISO 286-1 Table 1 values, which govern, are kept in the table file)."""
     if value_um <= 1.2:
         return _round_to(value_um, 0.1)
     if value_um <= 3.0:
@@ -130,9 +131,9 @@ def _round_it_fine(value_um: float) -> float:
 
 
 def _round_deviation(value_um: float) -> float:
-    """Rounding of computed fundamental deviations (ISO 286-1:1988, Annex, rounding table for
-    fundamental deviations, sizes up to 500 mm): 1 um up to 45, 2 um up to 80, 5 um up to 180,
-    10 um up to 560, 20 um up to 800, 50 um up to 2000, 100 um beyond."""
+    """Rounding of computed fundamental deviations, after the rounding table for fundamental
+    deviations of ISO 286-1:1988 (sizes up to 500 mm; from memory): 1 um up to 45, 2 um up to 80,
+    5 um up to 180, 10 um up to 560, 20 um up to 800, 50 um up to 2000, 100 um beyond."""
     magnitude = abs(value_um)
     for limit, step in ((45.0, 1.0), (80.0, 2.0), (180.0, 5.0), (560.0, 10.0), (800.0, 20.0), (2000.0, 50.0)):
         if magnitude <= limit:

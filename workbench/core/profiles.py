@@ -245,27 +245,18 @@ def rectangle_polygon(width_m: float, height_m: float, corner_radius_m: float = 
 
 
 def keyseat_dimensions_m(geometry: ShaftGeometry) -> tuple[float, float, float]:
-    """(width, depth, corner radius) of the keyseat of a keyed round or tube [m].
+    """(width, depth at the centreline, bottom radius) of the keyseat of a keyed round or tube [m].
 
     Explicit ``key_width_m``/``key_depth_m`` win; otherwise the key table of ``key_standard`` gives
-    width and shaft depth t1 for the diameter. A zero ``key_radius_m`` becomes r = 0.02 d
-    (Shigley 9th ed. Table 7-1 first-iteration assumption; common practice), at most b/4.
+    width and shaft depth (ANSI B17.1's side-wall depth turned into the centreline depth). A zero
+    ``key_radius_m`` becomes the standard's smallest bottom radius for the width (DIN 6885-1 r1 /
+    ANSI B17.1 fillet). See workbench.core.keyseat_factors.read_keyseat, which also refuses seats
+    that cannot be checked (KeyseatRefused, a ValueError).
     """
-    width, depth = geometry.key_width_m, geometry.key_depth_m
-    if width <= 0 or depth <= 0:
-        from workbench.core.tables import key_for_diameter  # lazy: the table loader reads data/
+    from workbench.core.keyseat_factors import read_keyseat
 
-        key = key_for_diameter(geometry.size_m, geometry.key_standard)
-        if key is None:
-            raise ValueError(
-                f"no {geometry.key_standard} key listed for a {geometry.size_m * 1e3:.1f} mm shaft; "
-                "give the keyseat width and depth")
-        width = width if width > 0 else key.width_m
-        depth = depth if depth > 0 else key.shaft_depth_m
-    radius = geometry.key_radius_m
-    if radius <= 0:
-        radius = min(DEFAULT_KEYSEAT_RADIUS_RATIO * geometry.size_m, width / 4.0)
-    return width, depth, radius
+    reading = read_keyseat(geometry)
+    return reading.width_m, reading.depth_m, reading.radius_m
 
 
 def profile_polygon(geometry: ShaftGeometry,

@@ -69,6 +69,19 @@ class StepCheck:
         return f"{label}, {size}"
 
 
+def _keyseat_scale(geometry) -> float:
+    """The factor on the handbook keyseat Kt/Kts for this seat (1 for a standard seat in a solid
+    round or a sound tube wall); a seat the ligament rule refuses was refused when the spec was read."""
+    from dataclasses import replace
+
+    from workbench.core.keyseat_factors import KeyseatRefused, keyseat_scale
+
+    try:
+        return keyseat_scale(replace(geometry, keyed=True))[0]
+    except KeyseatRefused:
+        return 1.0
+
+
 def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float, list[str]]:
     """(feature words, Kt, Kts, Kf, Kfs, notes) of a step; the larger of each where raisers meet."""
     table = stress_raisers()
@@ -78,7 +91,8 @@ def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, flo
     d_m = section.size_factor_diameter_m
     if step.keyed and g.profile in ("round", "tube"):
         raiser = table["keyseat"]
-        rows.append(("keyseat", raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
+        scale = _keyseat_scale(g)  # non-standard seat or thin tube wall (workbench.core.keyseat_factors)
+        rows.append(("keyseat", raiser.Kt * scale, raiser.Kts * scale, raiser.notch_radius_per_d * d_m))
     if step.kind == "shoulder" and step.larger_m > step.diameter_m * (1.0 + 1e-9):
         factors = shoulder_factors(step.larger_m, step.diameter_m, step.fillet_m, body_round=step.larger_round)
         rows.append(("shoulder", factors.Kt, factors.Kts, step.fillet_m))
@@ -153,7 +167,7 @@ def check_steps(
     gov = checks[index]
     fig = gov.figures
     verdict, governing, why = _verdict(fig.static_sf, fig.fatigue_sf, base.twist_deg_per_m,
-                                       base.twist_limit_deg_per_m, gov.where, settings)
+                                       base.twist_limit_deg_per_m, gov.where, settings, base.buckling_safety_factor)
     key = _key(checks, placed, material, static_T, hub_material, settings)
     masses = [(placed.load_x_m, layout.element_mass_kg)]
     if layout.driven is not None:

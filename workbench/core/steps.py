@@ -111,7 +111,7 @@ def can_turn(geometry: ShaftGeometry, journal_m: float) -> bool:
 def _turned(body: ShaftGeometry, diameter_m: float, keyed: bool) -> ShaftGeometry:
     """The section of a journal or seat turned on ``body``: a round (a tube keeps its bore)."""
     key = dict(keyed=keyed, key_standard=body.key_standard)
-    if keyed and body.keyed:
+    if keyed and body.key_width_m and body.key_depth_m:  # the seat as typed (the body is passed unkeyed)
         key.update(key_width_m=body.key_width_m, key_depth_m=body.key_depth_m, key_radius_m=body.key_radius_m)
     if body.profile == "tube":
         return ShaftGeometry("tube", diameter_m, body.second_m, finish=body.finish, **key)

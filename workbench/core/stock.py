@@ -66,9 +66,16 @@ def check_stock(
     one that returns None has no strength for that size, which is then skipped for it, never guessed.
     ``plan_for(geometry)`` gives the steps' plan of a bar (the existing journals and seat); None: as typed.
     """
+    from workbench.core.keyseat_factors import KeyseatRefused, read_keyseat
+
     rows = []
     for stock in stock_sizes(profile, system):
         geometry = stock_geometry(stock, keyed, finish)
+        if geometry.keyed:
+            try:
+                read_keyseat(geometry)
+            except KeyseatRefused:  # a tube whose wall cannot hold the keyseat (or no listed key): not offered
+                continue
         plan = plan_for(geometry) if plan_for else None
         for material_for in materials:
             mat = material_for(geometry.size_m)

@@ -30,7 +30,7 @@ MARKS = ("V", "C", "M", "P")
 KEY_STANDARDS = ("iso", "ansi")
 STOCK_SYSTEMS = ("metric", "inch")
 STOCK_PROFILES = ("round", "square", "flat", "hex", "tube")
-SERVICE_LOADS = ("uniform", "moderate", "heavy")
+SERVICE_LOADS = ("uniform", "moderate", "heavy", "extreme")
 
 _MM_TO_M = 1e-3
 _IN_TO_M = 0.0254  # exact by definition (international inch, 1959)
@@ -372,18 +372,19 @@ def mount_factors() -> dict[str, MountFactor]:
 class ServiceFactorRow:
     """One row of the service-factor table: duty up to ``hours_per_day`` hours a day.
 
-    uniform, moderate, heavy: service factor for that class of shock load of the driven machine [-]
+    uniform, moderate, heavy, extreme: service factor for that class of shock load of the driven machine [-]
     """
 
     hours_per_day: float
     uniform: float
     moderate: float
     heavy: float
+    extreme: float
     source: str
     mark: str
 
     def factor(self, load: str) -> float:
-        """The factor for ``load`` ("uniform", "moderate" or "heavy")."""
+        """The factor for ``load`` ("uniform", "moderate", "heavy" or "extreme")."""
         if load not in SERVICE_LOADS:
             raise ValueError(f"load {load!r} is not one of {', '.join(SERVICE_LOADS)}")
         return getattr(self, load)

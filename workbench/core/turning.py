@@ -73,7 +73,7 @@ def _row(step: Mapping, cls: str, reason: str, source: str) -> dict:
         "min_in": _inch(zone.min_m),
         "x_start_m": x0,
         "x_end_m": x1,
-        "length_m": None if x0 is None or x1 is None else round(float(x1) - float(x0), 12),
+        "length_m": None if x0 is None or x1 is None or float(x1) <= float(x0) else round(float(x1) - float(x0), 12),
         "fillet_min_m": None,
         "fillet_max_m": None,
         "finish_Ra_um": fit_advice.finish_Ra_um(zone.name, step["kind"]),
@@ -154,7 +154,7 @@ def turning_sheet(steps: Sequence[Mapping], options: TurningOptions, *, key: Map
         length = None
         if seat.get("x_start_m") is not None and seat.get("x_end_m") is not None:
             length = float(seat["x_end_m"]) - float(seat["x_start_m"])
-        length = key.get("length_m") or options.hub_length_m or length
+        length = key.get("length_m") or options.hub_length_m or length or None  # 0 = not known
         keyseat = fit_advice.keyseat(float(seat["diameter_m"]), float(key["width_m"]), float(key["depth_m"]),
                                      key_standard, options.key_fit, length)
     bearing = None

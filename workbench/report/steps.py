@@ -9,11 +9,13 @@ only: no calculation here. A result without steps (an older stored job) gives em
 from __future__ import annotations
 
 import math
+import re
 from collections.abc import Mapping, Sequence
 from typing import Any
 
 from workbench.report import display
 
+_ENDS_IN_SIZE = re.compile(r"\d\s*(mm|in|\")$")
 KIND_NAMES = {"body": "body", "journal": "journal", "seat": "hub seat", "shoulder": "shoulder"}
 KIND_LETTERS = {"body": "B", "journal": "J", "seat": "S", "shoulder": "|"}
 
@@ -61,15 +63,19 @@ def _num(value: Any) -> float | None:
 
 
 def step_name(step: Mapping[str, Any], system: str = "metric") -> str:
-    """A step as a fitter reads it: "hub seat, keyed, 35 mm" (its own label when it has one)."""
+    """A step as a fitter reads it: its own label (e.g. "hub seat, keyseat") with its turned
+    diameter added unless the label ends in a size; without a label "hub seat, keyed, 35.0 mm"."""
     label = step.get("label")
+    diameter = _num(step.get("diameter_m"))
     if isinstance(label, str) and label.strip():
-        return label.strip()
+        label = label.strip()
+        if diameter and not _ENDS_IN_SIZE.search(label):
+            label = f"{label}, {display.length(diameter, system)}"
+        return label
     kind = KIND_NAMES.get(str(step.get("kind")), str(step.get("kind", "step")))
     parts = [kind]
     if step.get("keyed"):
         parts.append("keyed")
-    diameter = _num(step.get("diameter_m"))
     if diameter:
         parts.append(display.length(diameter, system))
     return ", ".join(parts)
@@ -145,12 +151,15 @@ def shaft_checks(shaft: Mapping[str, Any], system: str = "metric") -> list[tuple
     key = shaft.get("key")
     if isinstance(key, Mapping):
         needed = _num(key.get("required_length_m"))
-        rows.append((
-            "key shear / crushing",
-            f"{display.factor(_num(key.get('shear_safety_factor')))} / "
-            f"{display.factor(_num(key.get('crush_safety_factor')))}"
-            + (f" · needs {display.length(needed, system)} of key" if needed else ""),
-        ))
+        need = f"needs {display.length(needed, system)} of key" if needed else ""
+        if _num(key.get("shear_safety_factor")) is None:
+            rows.append(("key shear / crushing", f"not checked (no hub length){' · ' + need if need else ''}"))
+        else:
+            rows.append((
+                "key shear / crushing",
+                f"{display.factor(_num(key.get('shear_safety_factor')))} / "
+                f"{display.factor(_num(key.get('crush_safety_factor')))}" + (f" · {need}" if need else ""),
+            ))
     if "critical_speed_rpm" in shaft:
         whirl = _num(shaft.get("critical_speed_rpm"))
         rows.append(("first critical speed", "not checked (no span)" if whirl is None
@@ -158,7 +167,11 @@ def shaft_checks(shaft: Mapping[str, Any], system: str = "metric") -> list[tuple
     if "deflection_m" in shaft:
         rows.append(("deflection at the element", _deflection(shaft.get("deflection_m"), system)))
     if "bearing_slopes_rad" in shaft:
-        rows.append(("slope at the bearings", _slopes(shaft.get("bearing_slopes_rad"))))
+        slopes = _slopes(shaft.get("bearing_slopes_rad"))
+        limit = _num(shaft.get("slope_limit_rad"))
+        if limit is not None and not slopes.startswith("not"):
+            slopes += f" (limit {display.number(limit, 2)} rad)"
+        rows.append(("slope at the bearings", slopes))
     return rows
 
 

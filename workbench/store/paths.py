@@ -9,6 +9,26 @@ ENV_VAR = "SHAFTBENCH_LOG"
 """Environment variable that names the job log file (overridden by ``--log PATH``)."""
 
 FILE_NAME = "jobs.sqlite3"
+URL_SCHEMES = ("postgresql://", "postgres://")
+"""A log named by one of these is a shared PostgreSQL log (``--log postgresql://user@host:5432/db``)."""
+
+
+def is_database_url(value: object) -> bool:
+    """True if ``value`` names a PostgreSQL job log rather than a file."""
+    return isinstance(value, str) and value.strip().lower().startswith(URL_SCHEMES)
+
+
+def log_target(value: str | os.PathLike[str] | None) -> str | Path:
+    """What a ``--log`` value (or None: ``$SHAFTBENCH_LOG``, else the default file) names: a
+    PostgreSQL URL (str) or a file path (Path)."""
+    if value is None or value == "":
+        env = os.environ.get(ENV_VAR)
+        if env is not None and is_database_url(env):
+            return env.strip()
+        return default_log_path()
+    if is_database_url(value):
+        return str(value).strip()
+    return Path(value).expanduser()
 
 
 def default_log_path() -> Path:

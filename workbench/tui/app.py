@@ -23,7 +23,7 @@ class ShaftbenchApp(App):
 
     CSS_PATH = Path(__file__).with_name("app.tcss")  # absolute: subclasses elsewhere find it too
     TITLE = "Shaftbench"
-    COMMANDS = App.COMMANDS | {_workbench_commands}
+    COMMANDS = {_workbench_commands}  # ours only: the toolkit's own (screenshot, maximize…) left out
     ENABLE_COMMAND_PALETTE = True
 
     BINDINGS = [
@@ -37,6 +37,7 @@ class ShaftbenchApp(App):
         Binding("f9", "profile", "Profile", id="app.profile", tooltip="Side profile, steps, moment diagram"),
         Binding("f10", "turning", "Turning", id="app.turning", tooltip="Turning sheet: sizes, limits, keyseat", show=False),
         Binding("f11", "fits", "Fits", id="app.fits", tooltip="ISO 286 limits and fits calculator", show=False),
+        Binding("ctrl+n", "new_job", "New", id="app.new_job", tooltip="An empty sheet for a new job"),
         Binding("ctrl+q", "quit", "Quit", id="app.quit", priority=True),
     ]
 
@@ -53,6 +54,9 @@ class ShaftbenchApp(App):
         self.system = "metric"
         self.initial_inputs = initial_inputs
         self.meta: dict[str, str] = {}
+        self.clean_inputs: dict[str, str] = {}  # the sheet as last saved, reopened or started
+        self.logged_job_id: int | None = None
+        """The log's job the sheet holds (reopened or saved), so saving again asks update or new."""
 
     def get_default_screen(self) -> JobScreen:
         """The job sheet is the bottom screen: one screen to compose before the first frame."""
@@ -62,6 +66,7 @@ class ShaftbenchApp(App):
 
             inputs = demo_inputs()
             self.meta = dict(DEMO_META)
+        self.clean_inputs = dict(inputs or {})
         # the first job is loaded and evaluated as the sheet mounts: the first frame shows its verdict
         self._job_screen = JobScreen(first_inputs=inputs)
         return self._job_screen
@@ -70,8 +75,82 @@ class ShaftbenchApp(App):
         self.call_after_refresh(self._after_first_paint)
 
     def _after_first_paint(self) -> None:
+        if self.clean_inputs:
+            self.mark_clean()  # the job started with, as the sheet holds it
         self._load_materials()
         self.job_screen.warm_up()
+        self._offer_draft()
+
+    # -- unsaved work ---------------------------------------------------------------------------
+    def unsaved(self) -> bool:
+        """True when the sheet holds a job that differs from the one last saved, reopened or
+        started with (an empty sheet is never unsaved work)."""
+        inputs = self.inputs()
+        return bool(inputs) and inputs != self.clean_inputs
+
+    def mark_clean(self) -> None:
+        """The sheet as it is now counts as kept (just saved, reopened or loaded)."""
+        self.clean_inputs = self.inputs()
+
+    def then_if_confirmed(self, what: str, action) -> None:
+        """Run ``action`` at once when nothing unsaved would be lost; else ask first."""
+        if not self.unsaved():
+            action()
+            return
+        from .screens.confirm import ConfirmScreen
+
+        def answered(yes: bool | None) -> None:
+            if yes:
+                action()
+
+        self.push_screen(
+            ConfirmScreen(f"The job on the sheet is not saved (F6 saves it). {what} and lose it?",
+                          yes=f"{what.lower()}, losing it", no="keep the job"),
+            answered,
+        )
+
+    def _handle_exception(self, error: Exception) -> None:
+        """Anything unexpected that escapes: keep the unsaved sheet as a draft, then stop."""
+        self._keep_draft(f"{type(error).__name__}: {error}")
+        super()._handle_exception(error)
+
+    def _keep_draft(self, reason: str) -> None:
+        from .draft import draft_path, save_draft
+
+        try:
+            inputs = self.job_screen.sheet.inputs()
+            if inputs:
+                save_draft(draft_path(self.log_path), inputs, self.meta, reason)
+        except Exception:  # noqa: BLE001 - the app is stopping; nothing more can be done
+            pass
+
+    def _offer_draft(self) -> None:
+        from .draft import discard_draft, draft_path, load_draft
+
+        try:
+            path = draft_path(self.log_path)
+        except Exception:  # noqa: BLE001 - no log folder to look in: no draft either
+            return
+        draft = load_draft(path)
+        if draft is None:
+            return
+        from .screens.confirm import ConfirmScreen
+
+        def answered(yes: bool | None) -> None:
+            discard_draft(path)
+            if yes:
+                self.meta = draft["meta"]
+                self.clean_inputs = {}
+                self.job_screen.sheet.load_inputs(draft["inputs"])
+
+        self.push_screen(
+            ConfirmScreen(
+                f"An unsaved sheet was kept when the workbench stopped unexpectedly "
+                f"({draft['kept_at']}). Put it back on the sheet?",
+                yes="put it back", no="throw it away",
+            ),
+            answered,
+        )
 
     def _load_materials(self) -> None:
         def work() -> list[str]:
@@ -142,7 +221,11 @@ class ShaftbenchApp(App):
         if not choice:
             return
         self.job_screen.sheet.set_candidate(choice["spec"], choice.get("material", ""))
-        self.notify(f"Candidate set: {choice['spec']} {choice.get('material', '')}".strip())
+        self.notify(f"Candidate set: {choice['spec']} {choice.get('material', '')}".strip(), markup=False)
+
+    def action_toggle_light(self) -> None:
+        """Light or dark screen (a bright workshop, a dim one)."""
+        self.theme = "textual-light" if self.theme != "textual-light" else "textual-dark"
 
     def action_turning(self) -> None:
         """The turning sheet of the current job (screens/turning.py)."""
@@ -161,6 +244,8 @@ class ShaftbenchApp(App):
         self.system = "inch" if self.system == "metric" else "metric"
         screen = self.job_screen
         screen.panel.set_system(self.system)
+        # what is typed keeps its meaning; from now on a bare length means the new display's unit
+        screen.sheet.set_system(self.system, previous="metric" if self.system == "inch" else "inch")
         screen.update_title()
         if hasattr(self.screen, "set_system"):
             self.screen.set_system(self.system)
@@ -173,11 +258,14 @@ class ShaftbenchApp(App):
         if result is None:
             self.notify("Nothing to save yet: the sheet has no current result.", severity="warning")
             return
-        self.push_screen(SaveScreen(self.inputs(), result, self.meta, self.log_path), self._saved)
+        self.push_screen(SaveScreen(self.inputs(), result, self.meta, self.log_path, job_id=self.logged_job_id),
+                         self._saved)
 
     def _saved(self, outcome: dict[str, Any] | None) -> None:
         if outcome:
+            self.mark_clean()
             self.meta = {k: outcome[k] for k in ("asset", "location", "by", "note") if k in outcome}
+            self.logged_job_id = outcome.get("job_id")
 
     def action_review(self) -> None:
         """Open the job log; reopen or duplicate a saved job."""
@@ -188,8 +276,14 @@ class ShaftbenchApp(App):
     def _reviewed(self, choice: dict[str, Any] | None) -> None:
         if not choice or "inputs" not in choice:
             return
-        self.job_screen.sheet.load_inputs({k: str(v) for k, v in choice["inputs"].items()})
+        self.then_if_confirmed("Reopen the saved job", lambda: self._reopen(choice))
+
+    def _reopen(self, choice: dict[str, Any]) -> None:
+        inputs = {k: str(v) for k, v in choice["inputs"].items()}
+        self.job_screen.sheet.load_inputs(inputs)
+        self.mark_clean()
         job_id = choice.get("job_id", "?")
+        self.logged_job_id = None
         if choice.get("action") == "duplicate":
             self.meta = {}
             self.notify(f"Copy of job {job_id} on the sheet; saving makes a new entry.")
@@ -204,18 +298,20 @@ class ShaftbenchApp(App):
             with JobLog.open(self.log_path, create=False) as log:
                 reopened = log.reopen(int(job_id))
         except (LogError, ValueError, TypeError) as err:
-            self.notify(f"Job {job_id} reopened; could not compare with the stored result: {err}", severity="warning")
+            self.notify(f"Job {job_id} reopened; could not compare with the stored result: {err}", severity="warning",
+                        markup=False)
             return
         record = reopened.record
+        self.logged_job_id = record.id
         self.meta = {"asset": record.asset, "location": record.location, "by": record.by, "note": record.note}
         if reopened.error:
             self.notify(f"Job {job_id} reopened, but today's program refuses it: {reopened.error}",
-                        severity="error", timeout=20)
+                        severity="error", timeout=20, markup=False)
         elif reopened.differences:
             lines = "\n".join(str(d) for d in reopened.differences[:6])
             more = f"\n… and {len(reopened.differences) - 6} more" if len(reopened.differences) > 6 else ""
             self.notify(f"Job {job_id} reopened — today's result DIFFERS from the stored one:\n{lines}{more}",
-                        severity="warning", timeout=30)
+                        severity="warning", timeout=30, markup=False)
         else:
             self.notify(f"Job {job_id} reopened — today's result matches the stored one.")
 
@@ -223,14 +319,38 @@ class ShaftbenchApp(App):
         """Put the demo job on the sheet."""
         from workbench.demo import DEMO_META, demo_inputs
 
-        self.meta = dict(DEMO_META)
-        self.job_screen.sheet.load_inputs(demo_inputs())
+        def load() -> None:
+            self.meta = dict(DEMO_META)
+            self.logged_job_id = None
+            self.job_screen.sheet.load_inputs(demo_inputs())
+            self.mark_clean()
 
-    def action_clear_sheet(self) -> None:
-        """Empty every field of the sheet."""
+        self.then_if_confirmed("Load the demo job", load)
+
+    def action_new_job(self) -> None:
+        """An empty sheet for a new job (asks first when the job on the sheet is not saved)."""
+        self.then_if_confirmed("Start a new job", self._new_job)
+
+    action_clear_sheet = action_new_job  # the palette's older name
+
+    def _new_job(self) -> None:
+        from .fields import FIELD_BY_KEY
+
         self.meta = {}
-        self.job_screen.sheet.load_inputs({})
+        self.clean_inputs = {}
+        self.logged_job_id = None
+        sheet = self.job_screen.sheet
+        sheet.restore({key: (spec.choices[0] if spec.choices else "") for key, spec in FIELD_BY_KEY.items()})
         self.job_screen.query_one("#power").focus()
+        sheet.scroll_home(animate=False)
+
+    async def action_quit(self) -> None:
+        """Leave the workbench; asks first when the job on the sheet is not saved."""
+        from .screens.confirm import ConfirmScreen
+
+        if isinstance(self.screen, ConfirmScreen):
+            return  # already asking
+        self.then_if_confirmed("Quit", self.exit)
 
 
 def run(*, demo: bool = False, log_path: str | None = None) -> int:

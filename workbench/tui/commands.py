@@ -1,4 +1,8 @@
-"""Command-palette entries for the workbench's main actions (only those that make sense now)."""
+"""Command-palette entries for the workbench's main actions (only those that make sense now).
+
+These are the palette's only entries: the toolkit's own generic commands (screenshot, maximize,
+keys, themes by name) are not what a fitter needs and are left out (see ``ShaftbenchApp.COMMANDS``).
+"""
 
 from __future__ import annotations
 
@@ -17,8 +21,12 @@ ACTIONS: tuple[tuple[str, str, str, bool], ...] = (
     ("Open job log", "review", "Reopen or duplicate a saved job (F7)", False),
     ("Turning sheet", "turning", "Sizes and limits to turn, keyseat to cut (F10)", True),
     ("Fits calculator", "fits", "ISO 286 limits of a class or fit, measured sizes (F11)", False),
+    ("New job (clear the sheet)", "new_job", "An empty sheet; asks first if the job is not saved (Ctrl+N)",
+     False),
+    ("Undo the last change", "screen.undo", "Put back the sheet before the last change (Ctrl+Z)", False),
     ("Load demo job", "load_demo", "Put the demo job on the sheet", False),
-    ("Clear sheet", "clear_sheet", "Empty every field", False),
+    ("Light or dark screen", "toggle_light", "Switch the colour theme", False),
+    ("Quit", "quit", "Leave the workbench; asks first if the job is not saved (Ctrl+Q)", False),
 )
 
 

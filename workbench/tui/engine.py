@@ -1,8 +1,9 @@
 """The workbench's only road to the calculation: the job contract in :mod:`workbench.job`.
 
 Everything heavy (pint, numpy, the core) is imported here lazily, on the first evaluation, which
-runs in a worker thread after the first paint. Input errors come back as messages per field;
-anything else is a bug and raises.
+runs in a worker thread after the first paint. Input errors come back as messages per field; a
+failure of the core itself (a bug, or an input the contract let through) comes back the same way,
+on the field it comes from, so that no entry can end the workbench.
 """
 
 from __future__ import annotations
@@ -74,9 +75,11 @@ def evaluate(inputs: dict[str, str]) -> Evaluation:
         try:
             result = job.evaluate_inputs(trial)
             break
-        except job.JobInputError as err:
-            key = getattr(err, "field", "") or "job"
-            message = str(err)
+        except Exception as err:  # noqa: BLE001 - every failure is a message, never the app's end
+            if isinstance(err, job.JobInputError):
+                key, message = getattr(err, "field", "") or "job", str(err)
+            else:
+                key, message = _blame(job, trial, err)
             if key in errors or key not in trial:
                 errors.setdefault(key, message)
                 break
@@ -90,6 +93,35 @@ def evaluate(inputs: dict[str, str]) -> Evaluation:
         errors=errors,
         elapsed_s=time.perf_counter() - started,
     )
+
+
+#: the fields tried, in this order, to find which one a failure of the core comes from
+BLAME_ORDER = ("candidate", "shaft", "candidate_material", "material", "pitch_diameter", "overhang",
+               "mount")
+
+
+def _blame(job: Any, trial: dict[str, str], err: Exception) -> tuple[str, str]:
+    """The field a failure of the core comes from, and a one-line message for it.
+
+    The core may refuse what the contract let through (a flat that leaves no material). The field
+    is found by giving each likely field its stand-in in turn: the first whose stand-in makes the
+    job compute is the one named; if none does, the message goes to the whole job.
+    """
+    text = str(err).splitlines()[0] if str(err) else type(err).__name__
+    for key in BLAME_ORDER:
+        if key not in trial:
+            continue
+        probe = dict(trial)
+        if key in STAND_INS:
+            probe[key] = STAND_INS[key]
+        else:
+            del probe[key]
+        try:
+            job.evaluate_inputs(probe)
+        except Exception:  # noqa: BLE001 - still failing: not this field
+            continue
+        return key, f"{key.replace('_', ' ')}: cannot be checked as typed ({text})"
+    return "job", f"the check cannot be computed ({type(err).__name__}: {text})"
 
 
 def warm_up() -> None:
@@ -110,6 +142,8 @@ def substitute(inputs: dict[str, str]) -> tuple[dict[str, Any] | None, str]:
         return job.substitute_inputs(inputs), ""
     except job.JobInputError as err:
         return None, str(err)
+    except Exception as err:  # noqa: BLE001 - said on the view; the workbench stays
+        return None, f"cannot be computed for this sheet ({type(err).__name__}: {err})"
 
 
 def stock(
@@ -121,13 +155,16 @@ def stock(
         return job.stock_inputs(inputs, profile, system, materials), ""
     except job.JobInputError as err:
         return None, str(err)
+    except Exception as err:  # noqa: BLE001 - said on the view; the workbench stays
+        return None, f"cannot be computed for this sheet ({type(err).__name__}: {err})"
 
 
 def material_keys() -> list[str]:
-    """The material keys of the shop table (data/materials.csv), in file order."""
-    from workbench.core.tables import materials
+    """What a material field completes: the keys a fitter types (a size-ranged grade once, its row
+    picked by the bar size), then the common designations (EN19, C45…), in file order."""
+    from workbench.core.material_names import grade_keys, material_names
 
-    return list(materials())
+    return grade_keys() + [entry.name for entry in material_names().values()]
 
 
 def section_maps(specs: list[tuple[str, str]], cols: int, rows: int) -> list[dict[str, Any]]:

@@ -8,6 +8,7 @@ from textual import work
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal
+from textual.content import Content
 from textual.screen import Screen
 from textual.widgets import DataTable, Footer, Input, Label, Static
 
@@ -90,7 +91,7 @@ class StockScreen(Screen[dict[str, str] | None]):
         table.clear(columns=True)
         self.rows = []
         if data is None:
-            status.update(f"✗ {message}")
+            status.update(Content(f"✗ {message}"))  # quotes typed text: never markup
             return
         rows = stock_rows(data, _required_sf(self.inputs))
         self.rows = rows

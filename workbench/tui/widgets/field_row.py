@@ -11,6 +11,7 @@ field is found invalid.
 from __future__ import annotations
 
 from textual.containers import Container
+from textual.content import Content
 from textual.geometry import Size
 from textual.suggester import SuggestFromList
 from textual.widget import Widget
@@ -125,7 +126,7 @@ class FieldRow:
         invalid = bool(message)
         self.label.set_class(invalid, "-invalid")
         self.control.set_class(invalid, "-invalid")
-        text = f"✗ {message}" if message else ""
+        text = Content(f"✗ {message}" if message else "")  # the message quotes typed text
         if self.error is None:
             if not message:
                 return

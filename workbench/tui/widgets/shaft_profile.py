@@ -69,7 +69,7 @@ def bearing_positions(result: Mapping[str, Any], shafts: Sequence[Mapping[str, A
     """Bearing centres [m]: from the layout when given, else the centres of the journals."""
     layout = result.get("layout")
     if isinstance(layout, Mapping):
-        for key in ("bearings_m", "bearing_positions_m", "bearing_x_m"):
+        for key in ("bearing_x_m",):
             value = layout.get(key)
             if isinstance(value, Sequence) and not isinstance(value, str):
                 positions = [_num(v) for v in value]
@@ -83,18 +83,18 @@ def bearing_positions(result: Mapping[str, Any], shafts: Sequence[Mapping[str, A
 
 
 def load_positions(result: Mapping[str, Any], shafts: Sequence[Mapping[str, Any]]) -> list[float]:
-    """Load lines of the mounted elements [m]: from the layout, else the centres of the hub seats."""
+    """Load lines of the mounted elements [m]: from the layout (the driving element's ``load_x_m``,
+    a driven element placed from its bearing), else the centres of the hub seats."""
     layout = result.get("layout")
     if isinstance(layout, Mapping):
-        found = []
-        for key, value in layout.items():
-            if key.endswith("_x_m") and key != "bearing_x_m" and _num(value) is not None:
-                found.append(float(value))
-        elements = layout.get("elements")
-        if isinstance(elements, Sequence):
-            for element in elements:
-                if isinstance(element, Mapping) and _num(element.get("x_m")) is not None:
-                    found.append(float(element["x_m"]))
+        found = [float(v) for k, v in layout.items()
+                 if k.endswith("_x_m") and k != "bearing_x_m" and _num(v) is not None]
+        driven, bearings = layout.get("driven"), layout.get("bearing_x_m")
+        if isinstance(driven, Mapping) and isinstance(bearings, Sequence) and len(bearings) == 2:
+            distance = _num(driven.get("distance_m"))
+            base = _num(bearings[0] if driven.get("position") == "between" else bearings[1])
+            if distance is not None and base is not None:
+                found.append(base + distance)  # between: from bearing 1; far-end: beyond bearing 2
         if found:
             return sorted(set(found))
     for shaft in shafts:
@@ -104,7 +104,21 @@ def load_positions(result: Mapping[str, Any], shafts: Sequence[Mapping[str, Any]
     return []
 
 
-def _profile_rows(shaft: Mapping[str, Any], scale: _Scale, half: int, d_max: float,
+def _unit_levels(steps: Sequence[Mapping[str, Any]], d_max: float, units: int) -> dict[float, int]:
+    """Half-cells of radius for each diameter: in proportion to the largest, except that two
+    different diameters never draw alike (each smaller one at least a half-cell below the next
+    larger), so a 40 mm journal on a 45 mm bar still shows its shoulder."""
+    diameters = sorted({d for d in (_num(s.get("diameter_m")) for s in steps) if d}, reverse=True)
+    out: dict[float, int] = {}
+    previous = units + 1
+    for d in diameters:
+        level = max(1, min(round(d / d_max * units), previous - 1))
+        out[d] = level
+        previous = level
+    return out
+
+
+def _profile_rows(shaft: Mapping[str, Any], scale: _Scale, half: int, levels: dict[float, int],
                   bearings: list[float], system: str) -> list[Text]:
     steps = steps_of(shaft)
     governing = governing_index(shaft)
@@ -112,7 +126,7 @@ def _profile_rows(shaft: Mapping[str, Any], scale: _Scale, half: int, d_max: flo
     units = []
     for index in index_at:
         d = _num(steps[index].get("diameter_m")) if index is not None else None
-        units.append(0 if not d else max(1, round(d / d_max * 2 * half)))
+        units.append(levels.get(d, 0) if d else 0)
     keyed = []
     for c, index in enumerate(index_at):
         step = steps[index] if index is not None else {}
@@ -260,6 +274,8 @@ def draw_profiles(result: Mapping[str, Any] | None, width: int, height: int,
     fixed = 4 + 3 * n  # load row, diagram title and torque line, legend; per shaft title, letters, ━
     half = max(2, min(4, (height - fixed - 3) // (2 * n)))
     diagram_rows = max(2, min(8, height - fixed - 2 * n * half))
+    all_steps = [s for shaft in drawn for s in steps_of(shaft)]
+    levels = _unit_levels(all_steps, d_max, 2 * half)  # one scale for every shaft drawn
     bearings = bearing_positions(result, drawn)
     loads = load_positions(result, drawn)
 
@@ -270,7 +286,7 @@ def draw_profiles(result: Mapping[str, Any] | None, width: int, height: int,
     lines.append(Text("".join(arrow), style="bold"))
     for shaft in drawn:
         lines.append(_title(shaft, system, scale.width))
-        lines.extend(_profile_rows(shaft, scale, half, d_max, bearings, system))
+        lines.extend(_profile_rows(shaft, scale, half, levels, bearings, system))
     diagram = result.get("moment_diagram")
     if isinstance(diagram, Mapping):
         lines.extend(_diagram_rows(diagram, scale, diagram_rows, system))

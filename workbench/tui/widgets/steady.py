@@ -9,6 +9,7 @@ next. These helpers ask for the pass only when a size can really change.
 
 from __future__ import annotations
 
+from textual.content import Content
 from textual.geometry import Size
 from textual.widgets import Input, Static
 
@@ -36,6 +37,8 @@ def update_in_place(widget: Static, content) -> None:
     follow its content. A hidden widget takes no room (showing it lays out anyway). Before the
     widget has a size, Textual's default (a pass) is kept.
     """
+    if isinstance(content, str):  # shown as written: typed text is never read as markup
+        content = Content(content)
     styles = widget.styles
     if widget.is_mounted and not widget.display:  # takes no room; showing it will lay out anyway
         widget.update(content, layout=False)

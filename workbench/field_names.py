@@ -1,0 +1,54 @@
+"""What each job input is called where a person sees it: its CLI option and its workbench label.
+
+Messages name the option (``--pitch-diameter``) on the command line and the field label in the
+workbench, never the internal key (``pitch_diameter``). Both sides use these two maps.
+"""
+
+from __future__ import annotations
+
+OPTIONS = {
+    "power": "--power", "speed": "--speed", "torque": "--torque", "ratio": "--ratio",
+    "efficiency": "--efficiency", "service_factor": "--service-factor", "duty": "--duty",
+    "peak_factor": "--peak-factor", "mount": "--mount", "pitch_diameter": "--pitch-diameter",
+    "overhang": "--overhang", "shaft": "--shaft", "candidate": "--candidate", "material": "--material",
+    "candidate_material": "--candidate-material", "required_sf": "--required-sf",
+    "criterion": "--criterion", "reliability": "--reliability", "twist_limit": "--twist-limit",
+    "profile": "--profile", "system": "--system",
+}
+
+LABELS = {
+    "power": "Power", "speed": "Speed", "torque": "or Torque", "ratio": "Ratio", "efficiency": "Efficiency",
+    "service_factor": "Service factor", "duty": "Duty", "peak_factor": "Start torque ×", "mount": "Element",
+    "pitch_diameter": "Pitch dia.", "overhang": "Overhang", "shaft": "Shaft as found",
+    "candidate": "Candidate", "material": "Material", "candidate_material": "Candidate material",
+    "required_sf": "Required SF", "criterion": "Fatigue criterion", "reliability": "Reliability",
+    "twist_limit": "Twist limit", "profile": "Profile", "system": "Units",
+}
+
+
+def option_for(key: str) -> str:
+    """The CLI option of an input key (``pitch_diameter`` -> ``--pitch-diameter``)."""
+    return OPTIONS.get(key, "--" + key.replace("_", "-"))
+
+
+def label_for(key: str) -> str:
+    """The workbench label of an input key (``pitch_diameter`` -> ``Pitch diameter``)."""
+    return LABELS.get(key, key.replace("_", " ").capitalize())
+
+
+_BY_OPTION = {option: key for key, option in OPTIONS.items()}
+
+
+def warning_for_workbench(line: str) -> str:
+    """A job warning as the workbench shows it: the leading ``--option:`` becomes the field label
+    (``--overhang: ...`` -> ``Overhang: ...``); a line without one is left as it is."""
+    option, sep, rest = line.partition(": ")
+    if sep and option.startswith("--"):
+        key = _BY_OPTION.get(option, option[2:].replace("-", "_"))
+        return f"{label_for(key)}: {rest}"
+    return line
+
+
+def workbench_warning_lines(result: dict) -> list[str]:
+    """The job's ``warnings`` worded for the workbench's verdict panel (labels, not options)."""
+    return [warning_for_workbench(line) for line in result.get("warnings") or []]
