@@ -59,9 +59,9 @@ def test_whole_shaft_checks_and_not_checked():
 
 
 def test_cli_report_shows_the_steps_table():
-    """The CLI report's steps panels (workbench.report.steps_report) read the same result."""
+    """The CLI report's steps panel (workbench.report.steps, as the workbench and the card) reads the same result."""
     text = _text(render_check(stepped_result()), width=100)
-    assert "Steps" in text and "▶" in text and "shoulder 50/40 mm" in text
+    assert "Steps" in text and "◀" in text and "shoulder 50/40 mm" in text
     assert "first critical" in text
 
 
