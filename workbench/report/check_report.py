@@ -8,6 +8,7 @@ from rich.table import Table
 from rich.text import Text
 
 from workbench.report import display as fmt
+from workbench.report.steps import STEPS_LEGEND, is_numeric_column, shaft_checks, step_columns, steps_of, steps_rows
 
 VERDICT_STYLE = {"pass": "bold green", "marginal": "bold yellow", "fail": "bold red"}
 
@@ -92,6 +93,28 @@ def warnings_text(result: dict) -> Text | None:
     return Text("\n".join(f"⚠ {line}" for line in lines), style="yellow")
 
 
+def steps_panel(result: dict, system: str) -> Panel | None:
+    """Each shaft as its steps (◀ the governing one) and the whole-shaft checks; None if no steps."""
+    parts = []
+    for shaft in result["shafts"]:
+        if not steps_of(shaft):
+            continue
+        table = Table(title=Text(f"{shaft['role']}: {shaft['spec']}"), title_justify="left",
+                      box=None, show_edge=False, pad_edge=False, padding=(0, 1, 0, 0), header_style="bold underline")
+        for column in step_columns(system):
+            table.add_column(column, justify="right" if is_numeric_column(column) else "left",
+                             no_wrap=not column.startswith("step"), min_width=8 if column == "step" else None)
+        for row in steps_rows(shaft, system):
+            table.add_row(*(Text(cell) for cell in row), style="bold" if "◀" in row[0] else "")
+        parts.append(table)
+        for label, value in shaft_checks(shaft, system):
+            parts.append(Text.assemble((f"  {label}: ", "dim"), value))
+    if not parts:
+        return None
+    parts.append(Text(STEPS_LEGEND, style="dim"))
+    return Panel(Group(*parts), title="Steps", title_align="left")
+
+
 def cautions_panel(cautions: list[str]) -> Panel:
     """The safety cautions, always shown."""
     body = Text("\n".join(f"! {line}" for line in cautions))
@@ -117,9 +140,9 @@ def render_check(result: dict, system: str = "metric") -> Group:
     warned = warnings_text(result)
     if warned is not None:
         parts.append(warned)
-    from workbench.report.steps_report import steps_panels
-
-    parts.extend(steps_panels(result, system))
+    steps = steps_panel(result, system)
+    if steps is not None:
+        parts.append(steps)
     for shaft in result["shafts"]:
         solved = shaft.get("keyseat_solver")
         if solved:
