@@ -8,7 +8,6 @@ question (``log purge``) changes nothing and exits with 1.
 from __future__ import annotations
 
 import argparse
-import json
 import sys
 from collections.abc import Callable
 from pathlib import Path
@@ -93,15 +92,13 @@ def save_from_args(args: argparse.Namespace, inputs: dict[str, str], result: dic
         return None
     from workbench.store import JobLog
 
+    meta = {name: getattr(args, name, "") or "" for name in ("asset", "location", "by", "note", "fitted")}
+    if getattr(args, "demo", False):  # the demo job comes with its invented plant's notes
+        from workbench.demo import DEMO_META
+
+        meta = {name: meta[name] or DEMO_META.get(name, "") for name in meta}
     with JobLog.open(getattr(args, "log", None)) as log:
-        return log.save(
-            inputs, result,
-            asset=getattr(args, "asset", "") or "",
-            location=getattr(args, "location", "") or "",
-            by=getattr(args, "by", "") or "",
-            note=getattr(args, "note", "") or "",
-            fitted=getattr(args, "fitted", "") or "",
-        )
+        return log.save(inputs, result, **meta)
 
 
 # --------------------------------------------------------------------------------------------
@@ -124,7 +121,9 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
         return parser
 
     listing = command("list", "list jobs, newest first", _cmd_list)
-    listing.add_argument("--text", default="", help="words to find in asset, location, notes or material")
+    listing.add_argument("--text", default="",
+                         help="words to find (any case): asset, location, notes, material, who checked it, "
+                              "what was fitted and how it ended, the shaft specs, verdict and governing check")
     listing.add_argument("--verdict", choices=VERDICTS, help="only jobs with this verdict")
     listing.add_argument("--since", metavar="DATE", help="only jobs saved on or after DATE (YYYY-MM-DD, UTC)")
     listing.add_argument("--until", metavar="DATE", help="only jobs saved on or before DATE (YYYY-MM-DD, UTC)")
@@ -155,6 +154,20 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
                       help="html: fix the paper size (default: the printer's paper; the card fits both)")
     card.add_argument("-o", "--output", metavar="FILE", help="write to FILE instead of the screen")
 
+    edit = command("edit", "change a saved job's notes and record what was fitted and how it ended "
+                           "(each change is kept with its time)", _cmd_edit)
+    edit.add_argument("id", type=job_id_arg, metavar="ID")
+    for option, help_ in (("--asset", "asset tag"), ("--location", "where the drive is"),
+                          ("--by", "who checked the job"), ("--note", "the notes (replaces them)"),
+                          ("--fitted", "which candidate spec was actually fitted")):
+        edit.add_argument(option, metavar="TEXT", help=help_)
+    edit.add_argument("--add-note", metavar="TEXT", help="add a line to the notes")
+    edit.add_argument("--fitted-on", metavar="DATE", help="the date it was fitted (YYYY-MM-DD; 'none' clears)")
+    edit.add_argument(
+        "--outcome", nargs="+", metavar="WORD",
+        help="how it ended: still-running [DATE] | failed DATE | removed [DATE] | none (clears)",
+    )
+
     delete = command("delete", "move a job to the bin (restore brings it back)", _cmd_delete)
     delete.add_argument("id", type=job_id_arg, metavar="ID")
     restore = command("restore", "bring a job back from the bin", _cmd_restore)
@@ -170,7 +183,7 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
 def _needs_subcommand(parser: argparse.ArgumentParser) -> Callable[[argparse.Namespace], int]:
     def func(args: argparse.Namespace) -> int:
         parser.print_usage(sys.stderr)
-        print("shaftbench log: choose a command: list, show, export, import, card, delete, restore, purge",
+        print("shaftbench log: choose a command: list, show, edit, export, import, card, delete, restore, purge",
               file=sys.stderr)
         return EXIT_USAGE
 
@@ -253,6 +266,12 @@ def _write_out(args: argparse.Namespace, text: str) -> None:
         sys.stdout.write(text)
 
 
+def _report_skipped(log: Any) -> None:
+    """One line on stderr for each stored job that could not be read (the others were shown)."""
+    for line in dict.fromkeys(getattr(log, "skipped", [])):
+        print(f"shaftbench log: {line}; skipped", file=sys.stderr)
+
+
 def _summary(record: Any) -> dict[str, Any]:
     full = record.as_dict()
     return {k: v for k, v in full.items() if k not in ("inputs", "result")}
@@ -278,8 +297,11 @@ def _cmd_list(args: argparse.Namespace) -> int:
                        deleted=bool(args.deleted))
         records = log.search(limit=args.limit, **filters)
         total = log.count(**filters)
+        _report_skipped(log)
     if args.json:
-        sys.stdout.write(json.dumps([_summary(r) for r in records], ensure_ascii=False, indent=1) + "\n")
+        from workbench.store.exchange import dumps_strict
+
+        sys.stdout.write(dumps_strict([_summary(r) for r in records], indent=1) + "\n")
         return EXIT_OK
     console = _console()
     if not records:
@@ -300,9 +322,12 @@ def _cmd_show(args: argparse.Namespace) -> int:
     with _open(args) as log:
         record = log.get(args.id)
         if args.json:
-            sys.stdout.write(json.dumps(record.as_dict(), ensure_ascii=False, indent=1) + "\n")
+            from workbench.store.exchange import dumps_strict
+
+            sys.stdout.write(dumps_strict(record.as_dict(), indent=1) + "\n")
             return EXIT_OK
         reopened = log.reopen(args.id)
+        history = log.changes(args.id)
     from rich.table import Table
     from rich.text import Text
 
@@ -318,6 +343,18 @@ def _cmd_show(args: argparse.Namespace) -> int:
         inputs.add_row(literal(key), literal(value))
     console.print(Text("Inputs as typed", style="bold"))
     console.print(inputs)
+    if history:
+        from workbench.report.jobcard import local_when
+
+        console.print(Text("Changes since it was saved", style="bold"))
+        changes = Table.grid(padding=(0, 2))
+        for _ in range(3):
+            changes.add_column()
+        for change in history:
+            changes.add_row(local_when(change["changed_at"]), literal(change["field"]),
+                            Text.assemble(literal(cut(change["old"] or "-", 40)), " -> ",
+                                          literal(cut(change["new"] or "-", 40))))
+        console.print(changes)
     if record.deleted:
         console.print(Text(f"This job is in the bin since {when(record.deleted_at)}.", style="bold"))
     console.print(recheck_text(reopened))
@@ -340,6 +377,7 @@ def _cmd_export(args: argparse.Namespace) -> int:
         else:
             writer(rows, sys.stdout)
             sys.stdout.flush()
+        _report_skipped(log)
     return EXIT_OK
 
 
@@ -378,6 +416,60 @@ def _cmd_card(args: argparse.Namespace) -> int:
     else:
         text = "\n".join(export_card(job_card_for_record(r), args.format) for r in records)
     _write_out(args, text)
+    return EXIT_OK
+
+
+OUTCOME_WORDS = ("still-running", "failed", "removed")
+
+
+def _outcome_arg(words: list[str]) -> dict[str, str]:
+    """``--outcome WORD [DATE]`` as the log's outcome fields (``none`` clears them)."""
+    word = words[0].strip().casefold().replace("_", "-").replace(" ", "-")
+    if word in ("none", "clear", "-"):
+        if len(words) > 1:
+            raise ValueError("--outcome none takes no date")
+        return {"outcome": "", "outcome_date": ""}
+    if word in ("running", "still", "ok"):
+        word = "still-running"
+    if word not in OUTCOME_WORDS:
+        raise ValueError(f"--outcome: expected still-running, failed DATE, removed or none, got {cut(words[0])!r}")
+    if len(words) > 2:
+        raise ValueError(f"--outcome: expected a word and at most one date, got {cut(' '.join(words))!r}")
+    return {"outcome": word, "outcome_date": words[1] if len(words) == 2 else ""}
+
+
+def _cmd_edit(args: argparse.Namespace) -> int:
+    from workbench.report.jobcard import OUTCOMES, local_when
+
+    changes: dict[str, str] = {
+        name: getattr(args, name) for name in ("asset", "location", "by", "note", "fitted")
+        if getattr(args, name) is not None
+    }
+    if args.fitted_on is not None:
+        changes["fitted_on"] = "" if args.fitted_on.strip().casefold() in ("none", "-", "") else args.fitted_on
+    if args.outcome:
+        try:
+            changes.update(_outcome_arg(args.outcome))
+        except ValueError as err:
+            return _fail(str(err))
+    if not changes and args.add_note is None:
+        return _fail("edit: nothing to change; give --note, --add-note, --fitted, --fitted-on, --outcome, "
+                     "--asset, --location or --by (see shaftbench log edit --help)")
+    with _open(args) as log:
+        before = log.get(args.id)
+        if args.add_note is not None:
+            base = changes.get("note", before.note)
+            changes["note"] = f"{base}\n{args.add_note}" if base else args.add_note
+        after = log.update(args.id, **changes)
+    changed = [name for name in changes if getattr(after, name) != getattr(before, name)]
+    if not changed:
+        print(f"job {args.id}: nothing changed")
+        return EXIT_OK
+    ending = ""
+    if after.outcome:
+        ending = f"; outcome {OUTCOMES.get(after.outcome, after.outcome)}"
+        ending += f" on {after.outcome_date}" if after.outcome_date else ""
+    print(f"job {args.id} updated ({', '.join(changed)}) at {local_when(after.updated_at)}{ending}")
     return EXIT_OK
 
 

@@ -6,7 +6,7 @@ DEMO_META = {
     "asset": "CV-07 head drive",
     "location": "Brindlemoor Quarry, crusher line 2",
     "by": "demo fitter",
-    "note": "Jackshaft worn at both bearing seats; square bar from the rack, to be turned to the old 40 mm "
+    "note": "Conveyor jackshaft worn at both bearing seats; square bar from the rack, to be turned to the old 40 mm "
             "journals and the keyed pulley seat.",
 }
 

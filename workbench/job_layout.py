@@ -174,7 +174,7 @@ def step_fields(check) -> dict:
             "x_start_m": step.x_start_m,
             "x_end_m": step.x_end_m,
             "diameter_m": step.diameter_m,
-            "fillet_m": step.fillet_m,
+            "fillet_m": step.fillet_m if step.kind == "shoulder" else None,
             "keyed": step.keyed,
             "profile": step.geometry.profile,
             "larger_diameter_m": step.larger_m or None,

@@ -23,7 +23,7 @@ PAPER_POINTS = {"a4": (595.3, 841.9), "letter": (612.0, 792.0)}
 SIZE_TOLERANCE_PT = 1.0
 MIN_TEXT_PT = 9.0
 
-LONG_TAG = "CV-07/HEAD-DRIVE-" + "X" * 120  # one unbroken word, wider than the page
+LONG_TAG = "CV-07/HEAD-DRIVE-" + "X" * 70  # one unbroken word, wider than its column
 NOTE = ("Sheared at the keyseat after two years; [bold]not markup[/bold] <b>not html</b> & co.\n"
         "Bearing on the drive end replaced at the same time.")
 

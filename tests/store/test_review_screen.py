@@ -302,3 +302,41 @@ def test_the_log_chooses_its_columns_by_width(tmp_path, size):
     # below the room for the extra columns only the four kept ones remain, and all fit
     assert [key for key, _ in choose_columns(50)] == ["id", "saved", "verdict", "asset"]
     assert sum(w + 2 for _, w in choose_columns(200)) == 200
+
+
+@run_async
+async def test_the_outcome_form_records_how_the_fitted_shaft_ended(tmp_path):
+    from workbench.tui.screens.outcome import OutcomeScreen
+
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 2)
+    app = Host(path)
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = app.screen
+        await _settle(pilot, screen, 1)
+        await pilot.press("down", "e")
+        await pilot.pause(0.1)
+        form = app.screen
+        assert isinstance(form, OutcomeScreen) and form.record.id == ids[-1]
+        form.query_one("#outcome-fitted", Input).value = "square 40mm"
+        form.query_one("#outcome-fitted_on", Input).value = "2026-03-02"
+        form.query_one("#outcome-outcome", Select).value = "failed"
+        form.query_one("#outcome-outcome_date", Input).value = "2026-02-30"  # no such day
+        await pilot.press("ctrl+s")
+        for _ in range(100):
+            await pilot.pause(0.02)
+            if not form.workers:
+                break
+        status = str(form.query_one("#outcome-status", Static).render())
+        assert app.screen is form and "outcome_date" in status and "not saved" in status
+        with JobLog.open(path) as log:
+            assert log.get(ids[-1]).outcome == "" and log.changes(ids[-1]) == []
+        form.query_one("#outcome-outcome_date", Input).value = "2026-11-20"
+        await pilot.press("ctrl+s")
+        await _settle(pilot, screen, 2)
+        assert app.screen is screen
+    with JobLog.open(path) as log:
+        job = log.get(ids[-1])
+        assert (job.fitted, job.fitted_on, job.outcome, job.outcome_date) == (
+            "square 40mm", "2026-03-02", "failed", "2026-11-20")
+        assert {c["field"] for c in log.changes(ids[-1])} == {"fitted", "fitted_on", "outcome", "outcome_date"}

@@ -121,8 +121,10 @@ def test_a_read_only_location_gives_a_clear_message_and_no_change(tmp_path):
     immutable = _make_read_only([existing, folder])
     try:
         before = _snapshot(existing)
-        with pytest.raises(LogError, match="read-only") as caught:
-            JobLog.open(existing)
+        with JobLog.open(existing) as log:  # a read-only log can still be listed and exported
+            assert log.read_only and log.count() == 3 and len(log.export_rows()) == 3
+            with pytest.raises(LogError, match="read-only") as caught:
+                log.save(dict(JOB_INPUTS["demo"]), result_for("demo"))
         assert str(existing) in str(caught.value)
         with pytest.raises(LogError, match="read-only") as caught:
             JobLog.open(new)

@@ -1,4 +1,5 @@
-"""Schema versions: v1 and v2 logs are migrated forward keeping every row, with a backup beside them."""
+"""Schema versions: v1, v2 and v3 logs are migrated forward keeping every row, with a backup beside
+them; a log of ours whose version number was lost is recognised by its tables."""
 
 from __future__ import annotations
 
@@ -37,7 +38,7 @@ def test_a_v1_log_is_migrated_keeping_every_row(tmp_path):
     path = tmp_path / "jobs.sqlite3"
     rows = _v1_log(path, jobs=25)
     with JobLog.open(path) as log:
-        assert user_version(log.conn) == schema.LATEST_VERSION == 4
+        assert user_version(log.conn) == schema.LATEST_VERSION == 5
         records = sorted(log.search(limit=100), key=lambda r: r.id)
         assert len(records) == 25
         for record, row in zip(records, rows):
@@ -47,7 +48,9 @@ def test_a_v1_log_is_migrated_keeping_every_row(tmp_path):
             assert record.fitted == "" and record.deleted_at is None
         # the new search column was filled for the old rows (case-folded)
         assert [r.asset for r in log.search(text="tag [7]")] == ["Tag [7]"]
-        assert log.count(text="SITE") == 25 and log.count(text="fitter") == 0  # "by" is not searched
+        # since v4 who checked the job is searched too, and the specs and verdict words
+        assert log.count(text="SITE") == 25 and log.count(text="fitter") == 25
+        assert log.count(text="hex 27mm") == sum(1 for r in rows if "hex 27mm" in r[9])
         assert [r.asset for r in log.search(text="site 13")] == ["Tag [13]"]  # through the v3 index
         assert log.integrity_ok()
     backup = tmp_path / "jobs.sqlite3.v1.bak"
@@ -132,3 +135,48 @@ def test_the_v3_index_holds_one_entry_per_job(tmp_path):
             f"SELECT count(*) FROM {schema.TEXT_INDEX} WHERE {schema.TEXT_INDEX} MATCH '\"bay\"'"
         ).fetchone()[0]
         assert indexed == 12
+
+
+def _v3_log(path, jobs: int) -> None:
+    """A log as version 3 left it (a v2 log migrated one step, the way version 3 did it)."""
+    _v2_log(path, jobs)
+    conn = sqlite3.connect(path, isolation_level=None)
+    assert migrate(conn, target=3) == 3
+    conn.close()
+
+
+def test_a_v3_log_gains_outcomes_and_wider_search_keeping_every_row(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    _v3_log(path, jobs=12)
+    with JobLog.open(path) as log:
+        assert user_version(log.conn) == schema.LATEST_VERSION
+        records = log.search(limit=100, deleted=None)
+        assert len(records) == 12
+        assert all(r.outcome == "" and r.fitted_on == "" and r.outcome_date == "" for r in records)
+        # the new search text covers who checked it and what was fitted (v3 did not)
+        assert log.count(text="fitter", deleted=None) == 12
+        demo_spec = JOB_INPUTS["demo"]["candidate"]
+        assert log.count(text=demo_spec, deleted=None) == 4  # jobs 0, 3, 6, 9 are the demo job
+        assert log.changes(records[0].id) == []
+        assert log.integrity_ok()
+    assert (tmp_path / "jobs.sqlite3.v3.bak").exists()
+
+
+@pytest.mark.parametrize("version", [1, 2, 3, 5])
+def test_a_log_of_ours_with_its_version_number_lost_is_recognised(tmp_path, version):
+    path = tmp_path / "jobs.sqlite3"
+    if version == 5:
+        with JobLog.open(path) as log:
+            for _ in range(5):
+                log.save(dict(JOB_INPUTS["demo"]), result_for("demo"), asset="kept")
+    elif version == 1:
+        _v1_log(path, jobs=5)
+    else:
+        (_v2_log if version == 2 else _v3_log)(path, jobs=5)
+    conn = sqlite3.connect(path, isolation_level=None)
+    conn.execute("PRAGMA user_version = 0")  # what another tool can leave behind
+    conn.close()
+    with JobLog.open(path) as log:
+        assert user_version(log.conn) == schema.LATEST_VERSION
+        assert log.count(deleted=None) == 5
+        assert log.integrity_ok()

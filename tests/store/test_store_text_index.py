@@ -1,7 +1,8 @@
 """The v3 text index: same answers as a plain substring test, kept in step with every change.
 
 The reference for every filter is the rule stated in ``JobLog.search``: each word of the filter,
-case-folded, is a substring of the case-folded asset, location, notes and material of the job.
+case-folded, is a substring of the job's case-folded search text (workbench/store/search_words.py:
+asset, location, notes, material, who, what was fitted, outcome, specs, verdict words).
 """
 
 from __future__ import annotations
@@ -15,6 +16,7 @@ from hypothesis import strategies as st
 from store_helpers import JOB_INPUTS, result_for
 
 from workbench.store import JobLog, migrations, schema, text_search as log_module
+from workbench.store.search_words import job_search_text
 
 needs_index = pytest.mark.skipif(
     not migrations.text_index_supported(),
@@ -41,15 +43,18 @@ TRICKY_FILTERS = [
 ]
 
 
-def _reference(jobs: dict[int, tuple[str, str, str, str]], text: str) -> set[int]:
+def _reference(jobs: dict[int, str], text: str) -> set[int]:
     words = text.replace("\x00", " ").casefold().split()  # NUL separates words, as documented
-    return {
-        job_id for job_id, (asset, location, note, material) in jobs.items()
-        if all(w in schema.search_text(asset, location, note, material) for w in words)
-    }
+    return {job_id for job_id, searched in jobs.items() if all(w in searched for w in words)}
 
 
-def _fill(log: JobLog, copies: int = 1) -> dict[int, tuple[str, str, str, str]]:
+def _searched(record) -> str:
+    meta = {name: getattr(record, name) for name in ("asset", "location", "note", "material", "by", "fitted",
+                                                     "outcome")}
+    return job_search_text(meta, record.inputs, record.result)
+
+
+def _fill(log: JobLog, copies: int = 1) -> dict[int, str]:
     """Save NOTES (``copies`` times) with the real results; every third job goes to the bin."""
     names = list(JOB_INPUTS)
     log.import_jobs(
@@ -59,7 +64,7 @@ def _fill(log: JobLog, copies: int = 1) -> dict[int, tuple[str, str, str, str]]:
     )
     jobs = {}
     for record in log.search(limit=10_000, deleted=None):
-        jobs[record.id] = (record.asset, record.location, record.note, record.material)
+        jobs[record.id] = _searched(record)
         if record.id % 3 == 0:
             log.delete(record.id)
     return jobs
@@ -135,7 +140,7 @@ def test_random_filters_agree_with_the_substring_rule(log_path, monkeypatch, loo
     monkeypatch.setattr(log_module, "INDEX_LOOKUP_LIMIT", lookup_limit)
     with JobLog.open(log_path) as log:
         jobs = _fill(log)
-        corpus = "".join(schema.search_text(*fields) for fields in jobs.values())
+        corpus = "".join(jobs.values())
         pieces = st.integers(0, len(corpus) - 1).flatmap(
             lambda start: st.integers(1, 8).map(lambda size: corpus[start:start + size])
         )

@@ -55,7 +55,9 @@ def _stepped_result() -> dict:
     ]
     candidate["governing_step"] = 3
     for shaft in (existing, candidate):
-        shaft["key"] = {"shear_safety_factor": 6.1, "crush_safety_factor": 2.4, "required_length_m": 0.045}
+        shaft["key"] = {"shear_safety_factor": 6.1, "crush_safety_factor": 2.4, "required_length_m": 0.045,
+                        "key_length_m": 0.08}
+        shaft["slope_limit_rad"] = 0.001
         shaft["critical_speed_rpm"] = 9100.0
         shaft["deflection_m"] = 0.00004
         shaft["bearing_slopes_rad"] = [0.00012, 0.00035]

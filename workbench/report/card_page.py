@@ -126,37 +126,83 @@ def _head(job: CardJob) -> PageSection:
 
 
 def _drive(job: CardJob) -> PageSection:
-    from workbench.report.jobcard import drive_rows
+    from workbench.report.jobcard import number
 
-    return PageSection("drive", "Drive", pairs(drive_rows(job.result)), half=True)
+    drive = job.result.get("drive") or {}
+    rows = [
+        ("motor", f"{number(drive.get('power_W'), 1000, 'kW')} at {number(drive.get('motor_speed_rpm'), 1, 'rpm')}"),
+        ("ratio / efficiency", f"{number(drive.get('ratio'))} / {number(drive.get('efficiency'))}"),
+        ("service / peak factor", f"{number(drive.get('service_factor'))} / {number(drive.get('peak_factor'))}"),
+        ("shaft speed", number(drive.get("shaft_speed_rpm"), 1, "rpm")),
+        ("torque running / design / peak",
+         f"{number(drive.get('running_torque_Nm'))} / {number(drive.get('design_torque_Nm'))} / "
+         f"{number(drive.get('peak_torque_Nm'), 1, 'N·m')}"),
+    ]
+    return PageSection("drive", "Drive", pairs(rows), half=True)
 
 
 def _mount(job: CardJob) -> PageSection:
     from workbench.report.jobcard import mount_rows
 
-    return PageSection("mount", "Mount", pairs(mount_rows(job.result)), half=True)
+    rows = [row for row in mount_rows(job.result) if row[0] not in ("required safety factor", "fatigue criterion")]
+    return PageSection("mount", "Mount", pairs(rows), half=True)
+
+
+_SHAFT_ROWS: list[tuple[str, Callable[[Mapping[str, Any]], str]]] = []
+"""The printable card's shaft rows (built on first use from jobcard.SHAFT_ROWS, related figures
+sharing a row so that the card stays on one page)."""
+
+
+def _shaft_rows() -> list[tuple[str, Callable[[Mapping[str, Any]], str]]]:
+    from workbench.report.jobcard import SHAFT_ROWS, number
+
+    if not _SHAFT_ROWS:
+        by_label = dict(SHAFT_ROWS)
+        _SHAFT_ROWS.extend([
+            ("spec", by_label["spec"]),
+            ("material", by_label["material"]),
+            ("stress shear / bending / von Mises", lambda s: (
+                f"{number(s.get('max_shear_stress_Pa'), 1e6)} / {number(s.get('bending_stress_Pa'), 1e6)} / "
+                f"{number(s.get('von_mises_stress_Pa'), 1e6, 'MPa')}")),
+            ("endurance limit", by_label["endurance limit"]),
+            ("safety factor static / shear-yield / fatigue", lambda s: (
+                f"{number(s.get('static_safety_factor'))} / {number(s.get('shear_yield_safety_factor'))} / "
+                f"{number(s.get('fatigue_safety_factor'))}")),
+            ("twist", by_label["twist"]),
+            ("Kf / Kfs", by_label["Kf / Kfs"]),
+            ("mass", by_label["mass"]),
+            ("verdict", by_label["verdict"]),
+        ])
+    return _SHAFT_ROWS
 
 
 def _shafts(job: CardJob) -> PageSection:
-    from workbench.report.jobcard import SHAFT_ROWS, shafts_of
+    from workbench.report.jobcard import shafts_of
 
     shafts = shafts_of(job.result)
     if not shafts:
         return PageSection("shafts", "Shafts", "<p>no shaft in this job</p>")
     table = grid(
         ["", *(s.get("role", "shaft") for s in shafts)],
-        ([label, *(cell(s) for s in shafts)] for label, cell in SHAFT_ROWS),
+        ([label, *(cell(s) for s in shafts)] for label, cell in _shaft_rows()),
+    )
+    from workbench.report.jobcard import deciding_shaft
+
+    deciding = deciding_shaft(job.result)
+    whys = "".join(  # the deciding shaft's why is in the Verdict section
+        f"<p>why ({esc(s.get('role', 'shaft'))}): {esc(s.get('why'))}</p>"
+        for s in shafts if s.get("why") and s is not deciding
     )
     said: dict[str, list[str]] = {}  # the same note on both shafts is printed once, naming both
     for s in shafts:
         for n in s.get("notes") or []:
             said.setdefault(str(n), []).append(str(s.get("role", "shaft")))
     notes = "".join(f"<p>note ({esc(', '.join(roles))}): {esc(n)}</p>" for n, roles in said.items())
-    return PageSection("shafts", "Shafts", table + notes)
+    return PageSection("shafts", "Shafts", table + whys + notes)
 
 
 def _verdict(job: CardJob) -> PageSection:
-    from workbench.report.jobcard import deciding_shaft, number, shafts_of
+    from workbench.report.jobcard import deciding_shaft, number
 
     result = job.result
     verdict = result.get("verdict")
@@ -166,9 +212,12 @@ def _verdict(job: CardJob) -> PageSection:
              + (f" — {esc(shaft.get('role', ''))} {esc(shaft.get('spec', ''))}" if shaft else "") + "</p>"]
     if shaft.get("governing"):
         lines.append(f"<p>governed by: {esc(shaft.get('governing'))}</p>")
-    lines.extend(
-        f"<p>why ({esc(s.get('role', 'shaft'))}): {esc(s.get('why'))}</p>" for s in shafts_of(result) if s.get("why")
-    )
+    if shaft.get("why"):
+        lines.append(f"<p>why: {esc(shaft.get('why'))}</p>")
+    settings = result.get("settings") or {}
+    if settings:
+        lines.append(f"<p>required safety factor {esc(number(settings.get('required_sf')))}, "
+                     f"fatigue criterion {esc(settings.get('fatigue_criterion') or '-')}</p>")
     comparison = result.get("comparison") or {}
     if comparison:
         lines.append(
@@ -245,7 +294,7 @@ _CSS = """
 * { box-sizing: border-box; }
 html { color: #000; background: #fff; }
 body { margin: 0; font-family: "DejaVu Sans", "Liberation Sans", Arial, Helvetica, sans-serif;
-       font-size: 9.5pt; line-height: 1.15; }
+       font-size: 9.5pt; line-height: 1.1; }
 .card { max-width: 188mm; margin: 0 auto; }
 .card + .card, .job + .job, .own-page { break-before: page; page-break-before: always; }
 h1 { font-size: 13pt; margin: 0 0 1.5mm; display: flex; justify-content: space-between; gap: 4mm; }
@@ -263,7 +312,7 @@ th, td { text-align: left; vertical-align: top; padding: 0.3mm 1.2mm;
 table.pairs th { width: 46%; font-weight: normal; }
 table.pairs.across th { width: 14%; }
 table.grid thead th { border-bottom: 0.3mm solid #000; }
-table.grid tbody th { width: 34%; font-weight: normal; }
+table.grid tbody th { width: 30%; font-weight: normal; }
 tr { break-inside: avoid; page-break-inside: avoid; }
 p { margin: 0.6mm 0; overflow-wrap: anywhere; }
 ul { margin: 0; padding-left: 5mm; }

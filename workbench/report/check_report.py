@@ -2,14 +2,12 @@
 
 from __future__ import annotations
 
-from rich import box
 from rich.console import Group
 from rich.panel import Panel
 from rich.table import Table
 from rich.text import Text
 
 from workbench.report import display as fmt
-from workbench.report.steps import STEPS_LEGEND, is_numeric_column, step_columns, shaft_checks, steps_of, steps_rows
 
 VERDICT_STYLE = {"pass": "bold green", "marginal": "bold yellow", "fail": "bold red"}
 
@@ -94,28 +92,6 @@ def warnings_text(result: dict) -> Text | None:
     return Text("\n".join(f"⚠ {line}" for line in lines), style="yellow")
 
 
-def steps_panel(result: dict, system: str) -> Panel | None:
-    """Each shaft as its steps (◀ the governing one) and the whole-shaft checks; None if no steps."""
-    parts = []
-    for shaft in result["shafts"]:
-        if not steps_of(shaft):
-            continue
-        table = Table(title=Text(f"{shaft['role']}: {shaft['spec']}"), title_justify="left",
-                      box=None, show_edge=False, pad_edge=False, padding=(0, 1, 0, 0), header_style="bold underline")
-        for column in step_columns(system):
-            table.add_column(column, justify="right" if is_numeric_column(column) else "left",
-                             no_wrap=not column.startswith("step"), min_width=8 if column == "step" else None)
-        for row in steps_rows(shaft, system):
-            table.add_row(*(Text(cell) for cell in row), style="bold" if "◀" in row[0] else "")
-        parts.append(table)
-        for label, value in shaft_checks(shaft, system):
-            parts.append(Text.assemble((f"  {label}: ", "dim"), value))
-    if not parts:
-        return None
-    parts.append(Text(STEPS_LEGEND, style="dim"))
-    return Panel(Group(*parts), title="Steps", title_align="left")
-
-
 def cautions_panel(cautions: list[str]) -> Panel:
     """The safety cautions, always shown."""
     body = Text("\n".join(f"! {line}" for line in cautions))
@@ -128,9 +104,6 @@ def render_check(result: dict, system: str = "metric") -> Group:
         Panel(_drive_table(result, system), title="Drive", title_align="left"),
         Panel(_shafts_table(result, system), title="Shafts", title_align="left"),
     ]
-    steps = steps_panel(result, system)
-    if steps is not None:
-        parts.append(steps)
     comparison = result.get("comparison")
     summary = Text("Verdict: ")
     summary.append_text(verdict_text(result["verdict"]))
@@ -155,7 +128,7 @@ def render_check(result: dict, system: str = "metric") -> Group:
                 f"Kts {solved['Kts_solver']:.2f} by the solver vs {solved['Kts_handbook']:.2f} handbook (checks use "
                 f"the handbook); J {solved['torsion_constant_ratio']:.0%} of the plain round — {solved['method']}"
             ))
-        for note in shaft.get("notes", []):
+        for note in [*shaft.get("notes", []), *shaft.get("steps_notes", [])]:
             parts.append(Text(f"note ({shaft['role']}): {note}", style="yellow"))
     from workbench.report.turning_sheet import render_turning
 

@@ -151,12 +151,15 @@ def shaft_checks(shaft: Mapping[str, Any], system: str = "metric") -> list[tuple
     key = shaft.get("key")
     if isinstance(key, Mapping):
         needed = _num(key.get("required_length_m"))
-        rows.append((
-            "key shear / crushing",
-            f"{display.factor(_num(key.get('shear_safety_factor')))} / "
-            f"{display.factor(_num(key.get('crush_safety_factor')))}"
-            + (f" · needs {display.length(needed, system)} of key" if needed else ""),
-        ))
+        need = f"needs {display.length(needed, system)} of key" if needed else ""
+        if _num(key.get("shear_safety_factor")) is None:
+            rows.append(("key shear / crushing", f"not checked (no hub length){' · ' + need if need else ''}"))
+        else:
+            rows.append((
+                "key shear / crushing",
+                f"{display.factor(_num(key.get('shear_safety_factor')))} / "
+                f"{display.factor(_num(key.get('crush_safety_factor')))}" + (f" · {need}" if need else ""),
+            ))
     if "critical_speed_rpm" in shaft:
         whirl = _num(shaft.get("critical_speed_rpm"))
         rows.append(("first critical speed", "not checked (no span)" if whirl is None
@@ -164,7 +167,11 @@ def shaft_checks(shaft: Mapping[str, Any], system: str = "metric") -> list[tuple
     if "deflection_m" in shaft:
         rows.append(("deflection at the element", _deflection(shaft.get("deflection_m"), system)))
     if "bearing_slopes_rad" in shaft:
-        rows.append(("slope at the bearings", _slopes(shaft.get("bearing_slopes_rad"))))
+        slopes = _slopes(shaft.get("bearing_slopes_rad"))
+        limit = _num(shaft.get("slope_limit_rad"))
+        if limit is not None and not slopes.startswith("not"):
+            slopes += f" (limit {display.number(limit, 2)} rad)"
+        rows.append(("slope at the bearings", slopes))
     return rows
 
 

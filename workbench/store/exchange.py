@@ -42,13 +42,44 @@ def _unguard(cell: str) -> str:
     return cell[1:] if cell.startswith("'") and _FORMULA.match(cell) else cell
 
 
+def strict_json(value: Any) -> Any:
+    """``value`` with every NaN or infinite float replaced by None, so that the JSON written is
+    strict (RFC 8259 has no NaN or Infinity; Python writes them, other readers refuse them)."""
+    if isinstance(value, float):
+        return value if math.isfinite(value) else None
+    if isinstance(value, Mapping):
+        return {key: strict_json(item) for key, item in value.items()}
+    if isinstance(value, (list, tuple)):
+        return [strict_json(item) for item in value]
+    return value
+
+
+def dumps_strict(value: Any, **options: Any) -> str:
+    """``json.dumps`` of ``strict_json(value)``; never writes NaN or Infinity."""
+    return json.dumps(strict_json(value), ensure_ascii=False, allow_nan=False, **options)
+
+
+def loads_guarded(text: str, what: str) -> Any:
+    """``json.loads`` whose every failure is a one-line LogError naming ``what``: bad JSON, nesting
+    deeper than Python's recursion limit, integers longer than Python converts (4,300 digits)."""
+    try:
+        return json.loads(text)
+    except json.JSONDecodeError as err:
+        raise LogError(f"{what} is not valid JSON (line {err.lineno}: {err.msg})") from None
+    except RecursionError:
+        raise LogError(f"{what} is nested too deeply to read") from None
+    except ValueError as err:  # e.g. an integer of more than 4,300 digits
+        raise LogError(f"{what} holds a value that cannot be read ({' '.join(str(err).split())[:80]})") from None
+
+
 def write_json(rows: Iterable[dict[str, Any]], out: IO[str]) -> int:
-    """Write jobs as a JSON list, one job per line; returns how many."""
+    """Write jobs as a JSON list, one job per line; returns how many. Strict JSON: a NaN or
+    infinite figure is written as null."""
     count = 0
     out.write("[")
     for row in rows:
         out.write(",\n" if count else "\n")
-        out.write(json.dumps(row, ensure_ascii=False, sort_keys=True))
+        out.write(dumps_strict(row, sort_keys=True))
         count += 1
     out.write("\n]\n")
     return count
@@ -174,10 +205,7 @@ def read_jobs(text: str, *, name: str = "the file") -> list[dict[str, Any]]:
     """Jobs from the text of a JSON or CSV export (told apart by the first character)."""
     stripped = text.lstrip("\ufeff \t\r\n")
     if stripped.startswith("[") or stripped.startswith("{"):
-        try:
-            data = json.loads(stripped)
-        except json.JSONDecodeError as err:
-            raise LogError(f"{name} is not valid JSON (line {err.lineno}: {err.msg})") from None
+        data = loads_guarded(stripped, name)
         if isinstance(data, dict):
             data = data.get("jobs")
         if not isinstance(data, list):
@@ -195,11 +223,8 @@ def read_jobs(text: str, *, name: str = "the file") -> list[dict[str, Any]]:
         for name_ in _TEXT_FIELDS:
             if isinstance(row.get(name_), str):
                 row[name_] = _unguard(row[name_])
-        try:
-            row["inputs"] = json.loads(row["inputs"] or "null")
-            row["result"] = json.loads(row["result"] or "null")
-        except json.JSONDecodeError as err:
-            raise LogError(f"{name} line {number}: inputs/result is not valid JSON ({err.msg})") from None
+        row["inputs"] = loads_guarded(row["inputs"] or "null", f"{name} line {number}: inputs")
+        row["result"] = loads_guarded(row["result"] or "null", f"{name} line {number}: result")
         row["deleted_at"] = row.get("deleted_at") or None
         rows.append(row)
     return rows

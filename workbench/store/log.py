@@ -11,7 +11,6 @@ it was.
 
 from __future__ import annotations
 
-import json
 import os
 import uuid
 from collections.abc import Iterable, Iterator, Mapping
@@ -24,20 +23,24 @@ from workbench.store import schema
 from workbench.store.compare import compare_results
 from workbench.store.paths import default_log_path, log_target
 from workbench.store.records import (
-    META_FIELDS,
+    EDITABLE_FIELDS,
     VERDICTS,
+    DamagedRow,
     Difference,
     JobRecord,
     LogError,
     Reopened,
 )
+from workbench.store.search_words import job_search_text
 from workbench.store.values import (
     INSERT_COLUMNS,
+    KEPT_ON_REPLACE,
     bound,
     content_uid,
     iso_utc,
     job_row,
     now_utc,
+    outcome_fields,
     parse_uid,
     record_from_row,
     text_value,
@@ -73,6 +76,16 @@ class JobLog:
     """
 
     path: Path
+    read_only: bool = False
+    """True if the log was opened read-only (this process may not write it)."""
+    _columns: tuple[str, ...] = schema.JOB_COLUMNS
+    """What each read selects, in JOB_COLUMNS order (an engine may read an older log's rows with
+    defaults for the columns it lacks)."""
+    _has_history: bool = True
+    """False for an older log opened read-only (no job_changes table yet)."""
+    skipped: list[str]
+    """One line for each stored job that could not be read and was left out of a listing or export
+    (engines set it to an empty list when they open)."""
 
     # -- opening and closing (the engine's) -----------------------------------------------------
 
@@ -151,6 +164,9 @@ class JobLog:
         by: str = "",
         note: str = "",
         fitted: str = "",
+        fitted_on: str = "",
+        outcome: str = "",
+        outcome_date: str = "",
         uid: str | uuid.UUID | None = None,
         bench: str | None = None,
     ) -> int:
@@ -159,10 +175,9 @@ class JobLog:
         ``uid`` (made by the caller, e.g. ``uuid.uuid4()``) makes a resend safe: a job with this uid
         already in the log is not stored again, and its id is returned. ``bench`` defaults to
         ``values.bench_name()``."""
-        row = job_row(
-            inputs, result, dict(asset=asset, location=location, by=by, note=note, fitted=fitted),
-            uid=parse_uid(uid) if uid is not None else None, bench=bench,
-        )
+        row = job_row(inputs, result, dict(asset=asset, location=location, by=by, note=note, fitted=fitted,
+                                           fitted_on=fitted_on, outcome=outcome, outcome_date=outcome_date),
+                      uid=parse_uid(uid) if uid is not None else None, bench=bench)
         with self._write() as conn:
             found = conn.execute("SELECT id FROM jobs WHERE uid = ?", (self._uid_param(row[0]),)).fetchone()
             if found is not None:
@@ -170,24 +185,73 @@ class JobLog:
             return self._insert(conn, row)
 
     def update(self, job_id: int, **changes: str) -> JobRecord:
-        """Change the notes of a job (any of asset, location, by, note, fitted); returns it."""
-        unknown = set(changes) - set(META_FIELDS)
+        """Change what is recorded around a job - asset, location, by, note, fitted, fitted_on,
+        outcome, outcome_date - and return it. Each field that changes is kept in the job's history
+        (``changes``) with the time of the change; the job's ``updated_at`` is that time."""
+        unknown = set(changes) - set(EDITABLE_FIELDS)
         if unknown:
-            raise LogError(f"cannot change {', '.join(sorted(unknown))}: only {', '.join(META_FIELDS)}")
+            raise LogError(f"cannot change {', '.join(sorted(unknown))}: only {', '.join(EDITABLE_FIELDS)}")
         current = self.get(job_id)
-        values = {name: getattr(current, name) for name in META_FIELDS}
+        values = {name: getattr(current, name) for name in EDITABLE_FIELDS}
         values.update({name: text_value(value, name) for name, value in changes.items()})
+        values.update(outcome_fields(values))
+        changed = [name for name in EDITABLE_FIELDS if values[name] != getattr(current, name)]
+        if not changed:
+            return current
+        now = now_utc()
+        search = job_search_text({**values, "material": current.material}, current.inputs, current.result)
         with self._write() as conn:
             conn.execute(
-                "UPDATE jobs SET asset = ?, location = ?, by = ?, note = ?, fitted = ?, "
-                "search_text = ?, updated_at = ? WHERE id = ?",
-                (
-                    values["asset"], values["location"], values["by"], values["note"], values["fitted"],
-                    schema.search_text(values["asset"], values["location"], values["note"], current.material),
-                    now_utc(), job_id,
-                ),
+                "UPDATE jobs SET asset = ?, location = ?, by = ?, note = ?, fitted = ?, fitted_on = ?, "
+                "outcome = ?, outcome_date = ?, search_text = ?, updated_at = ? WHERE id = ?",
+                (*(values[name] for name in EDITABLE_FIELDS), search, now, job_id),
             )
+            for name in changed:
+                conn.execute(
+                    "INSERT INTO job_changes (job_id, changed_at, field, old_value, new_value) VALUES (?, ?, ?, ?, ?)",
+                    (job_id, now, name, getattr(current, name), values[name]),
+                )
         return self.get(job_id)
+
+    def replace_result(self, job_id: int, inputs: Mapping[str, str], result: Mapping[str, Any],
+                       **changes: str) -> JobRecord:
+        """Store new inputs and result for an existing job (a job reopened, corrected and saved
+        again as the same job), with any of the ``update`` fields; the change is kept in the job's
+        history (field ``result``: the verdict and program version before and after)."""
+        unknown = set(changes) - set(EDITABLE_FIELDS)
+        if unknown:
+            raise LogError(f"cannot change {', '.join(sorted(unknown))}: only {', '.join(EDITABLE_FIELDS)}")
+        current = self.get(job_id)
+        values = {name: getattr(current, name) for name in EDITABLE_FIELDS}
+        values.update({name: text_value(value, name) for name, value in changes.items()})
+        row = dict(zip(INSERT_COLUMNS, job_row(inputs, result, values, created_at=current.created_at,
+                                               updated_at=now_utc(), deleted_at=current.deleted_at)))
+        kept = [name for name in INSERT_COLUMNS if name not in KEPT_ON_REPLACE]
+        with self._write() as conn:
+            conn.execute(
+                f"UPDATE jobs SET {', '.join(f'{name} = ?' for name in kept)} WHERE id = ?",
+                (*(row[name] for name in kept), job_id),
+            )
+            history = [("result", f"{current.verdict or '-'} ({current.program_version})",
+                        f"{row['verdict'] or '-'} ({row['program_version']})")]
+            history += [(name, getattr(current, name), values[name]) for name in EDITABLE_FIELDS
+                        if values[name] != getattr(current, name)]
+            for name, old, new in history:
+                conn.execute(
+                    "INSERT INTO job_changes (job_id, changed_at, field, old_value, new_value) VALUES (?, ?, ?, ?, ?)",
+                    (job_id, row["updated_at"], name, old, new),
+                )
+        return self.get(job_id)
+
+    def changes(self, job_id: int) -> list[dict[str, str]]:
+        """The job's history after its save, oldest first: ``changed_at``, ``field``, ``old``, ``new``."""
+        if not self._has_history:
+            return []  # an older log opened read-only has no history table
+        rows = self._read(
+            "SELECT changed_at, field, old_value, new_value FROM job_changes WHERE job_id = ? ORDER BY id",
+            (int(job_id),),
+        )
+        return [dict(changed_at=c, field=f, old=o, new=n) for c, f, o, n in rows]
 
     def delete(self, job_id: int) -> None:
         """Move a job to the bin (soft delete; ``restore`` brings it back, ``purge`` removes it)."""
@@ -219,13 +283,15 @@ class JobLog:
     def import_jobs(self, rows: Iterable[Mapping[str, Any]], *, bench: str | None = None) -> int:
         """Add exported jobs (dicts as from ``export_rows``) in one transaction; returns how many.
 
-        Each job gets a new id here; its uid, times, bench, notes and bin state are kept, and
+        Each job gets a new id here; its uid, times, bench, notes, outcome and bin state are kept, and
         ``origin`` records where it came from (``<bench> #<its id there>``, kept if it had one).
         ``bench`` names the bench the jobs came from when a row does not say. A job whose uid is
         already in the log is skipped, so importing a file twice adds nothing; a job without a uid
         (older exports) gets its content id (``values.content_uid``: creation time, inputs, result).
         A bad row stops the import with a message naming the row, and nothing is added.
         """
+        from workbench.store.exchange import loads_guarded, strict_json
+
         prepared: list[tuple[Any, ...]] = []
         for number, item in enumerate(rows, start=1):
             try:
@@ -233,11 +299,12 @@ class JobLog:
                     raise LogError("expected an object")
                 inputs, result = item.get("inputs"), item.get("result")
                 if isinstance(inputs, str):
-                    inputs = json.loads(inputs)
+                    inputs = loads_guarded(inputs, "inputs")
                 if isinstance(result, str):
-                    result = json.loads(result)
+                    result = loads_guarded(result, "result")
                 if not isinstance(result, Mapping):
                     raise LogError("result: expected an object")
+                result = strict_json(result)  # NaN and infinities are stored as null: strict JSON out
                 created = iso_utc(item["created_at"], "created_at") if item.get("created_at") else now_utc()
                 updated = iso_utc(item["updated_at"], "updated_at") if item.get("updated_at") else None
                 deleted = iso_utc(item["deleted_at"], "deleted_at") if item.get("deleted_at") else None
@@ -250,14 +317,14 @@ class JobLog:
                 prepared.append(
                     job_row(
                         inputs, result, item,
-                        uid=uid or content_uid(created, inputs, result),
-                        bench=came_from, origin=origin,
+                        uid=uid or content_uid(created, inputs, result), bench=came_from, origin=origin,
                         created_at=created, updated_at=updated, deleted_at=deleted,
                         program_version=version if isinstance(version, str) and version else None,
                     )
                 )
-            except (LogError, ValueError, TypeError) as err:
-                raise LogError(f"job {number} of the import: {err}") from None
+            except (LogError, ValueError, TypeError, RecursionError) as err:
+                message = "nested too deeply to read" if isinstance(err, RecursionError) else str(err)
+                raise LogError(f"job {number} of the import: {message}") from None
         added = 0
         with self._write() as conn:
             for row in prepared:
@@ -271,10 +338,25 @@ class JobLog:
 
     def get(self, job_id: int) -> JobRecord:
         """The job with this id (also when it is in the bin)."""
-        rows = self._read(f"SELECT {COLUMNS} FROM jobs WHERE id = ?", (int(job_id),))
+        rows = self._read(f"SELECT {self._select} FROM jobs WHERE id = ?", (int(job_id),))
         if not rows:
             raise LogError(f"there is no job {job_id} in the log")
-        return record_from_row(rows[0])
+        try:
+            return record_from_row(rows[0])
+        except DamagedRow as damage:
+            raise LogError(f"{damage}; the other jobs are not affected") from None
+
+    @property
+    def _select(self) -> str:
+        return ", ".join(self._columns)
+
+    def _records(self, rows: Iterable[tuple[Any, ...]]) -> Iterator[JobRecord]:
+        """The rows that can be read as records; each one that cannot is noted in ``skipped``."""
+        for row in rows:
+            try:
+                yield record_from_row(row)
+            except DamagedRow as damage:
+                self.skipped.append(str(damage))
 
     def _filters(
         self, verdict: str | Iterable[str] | None, since: Any, until: Any, deleted: bool | None
@@ -313,8 +395,9 @@ class JobLog:
         offset: int = 0,
         deleted: bool | None = False,
     ) -> list[JobRecord]:
-        """Jobs newest first. ``text``: every word must appear (any case) in asset, location, notes or
-        material - as plain characters, whatever they mean to SQL, LIKE or FTS5 (words are split at
+        """Jobs newest first. ``text``: every word must appear (any case) in the job's search text
+        (asset, location, notes, material, who, fitted, outcome, specs, verdict words; see
+        search_words.py) - as plain characters, whatever they mean to SQL, LIKE or FTS5 (words are split at
         white space and NUL); ``since``/``until``: UTC dates (inclusive) or times; ``deleted``:
         False = live jobs, True = the bin, None = both."""
         verdict = _verdicts(verdict)
@@ -325,9 +408,9 @@ class JobLog:
         ids = self._page_ids(text, (text, verdict, since, until, deleted), clauses, params, limit, offset)
         if not ids:
             return []
-        rows = self._read(f"SELECT {COLUMNS} FROM jobs WHERE id IN ({', '.join('?' * len(ids))})", ids)
-        by_id = {row[0]: row for row in rows}
-        return [record_from_row(by_id[i]) for i in ids if i in by_id]
+        rows = self._read(f"SELECT {self._select} FROM jobs WHERE id IN ({', '.join('?' * len(ids))})", ids)
+        by_id = {record.id: record for record in self._records(rows)}
+        return [by_id[i] for i in ids if i in by_id]
 
     def count(
         self,
@@ -342,9 +425,10 @@ class JobLog:
         return self._count_jobs(text, (text, verdict, since, until, deleted))
 
     def iter_export_rows(self) -> Iterator[dict[str, Any]]:
-        """Every job, bin included, oldest id first, as JSON-ready dicts (streamed)."""
-        for row in self._stream(f"SELECT {COLUMNS} FROM jobs ORDER BY id"):
-            yield record_from_row(row).as_dict()
+        """Every job, bin included, oldest id first, as JSON-ready dicts (streamed). A job that
+        cannot be read is left out and noted in ``skipped``."""
+        for record in self._records(self._stream(f"SELECT {self._select} FROM jobs ORDER BY id")):
+            yield record.as_dict()
 
     def export_rows(self) -> list[dict[str, Any]]:
         """Every job, bin included, as JSON-ready dicts (``import_jobs`` takes them back)."""

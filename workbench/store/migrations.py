@@ -6,6 +6,7 @@ import sqlite3
 from collections.abc import Callable
 
 from workbench.store import schema
+from workbench.store.records import LogError
 
 
 def _create_v1(conn: sqlite3.Connection) -> None:
@@ -32,11 +33,51 @@ def _v2_to_v3(conn: sqlite3.Connection) -> None:
 
 
 def _v3_to_v4(conn: sqlite3.Connection) -> None:
-    """Rebuild the jobs table in the v4 shape: inputs and result in one compressed payload, a uid
+    import json
+
+    from workbench.store.search_words import job_search_text
+
+    for statement in schema.V3_TO_V4:
+        conn.execute(statement)
+
+    def loaded(text: object) -> object:
+        try:
+            return json.loads(text) if isinstance(text, str) else None
+        except (ValueError, RecursionError):
+            return None  # a damaged row keeps what can be read; the log reports it when listed
+
+    rows = conn.execute(
+        "SELECT id, asset, location, by, note, material, fitted, inputs_json, result_json FROM jobs"
+    ).fetchall()
+    conn.executemany(
+        "UPDATE jobs SET search_text = ? WHERE id = ?",
+        (
+            (job_search_text(dict(asset=a, location=l, by=b, note=n, material=m, fitted=f),
+                             loaded(i), loaded(r)), job_id)
+            for job_id, a, l, b, n, m, f, i, r in rows
+        ),
+    )
+
+
+def _create_latest(conn: sqlite3.Connection) -> None:
+    """A new, empty log at the latest version (what the steps from 1 would make, without them)."""
+    conn.execute(f"PRAGMA application_id = {schema.APPLICATION_ID}")
+    conn.execute(schema.table_ddl("sqlite", "jobs"))
+    conn.execute(schema.table_ddl("sqlite", "job_changes"))
+    conn.execute("CREATE INDEX job_changes_job ON job_changes(job_id, id)")
+    for statement in (*schema.SQLITE_V5_INDEXES, *schema.SQLITE_COUNTS):
+        conn.execute(statement)
+    if text_index_supported():
+        build_text_index(conn)
+
+
+def _v4_to_v5(conn: sqlite3.Connection) -> None:
+    """Rebuild the jobs table in the v5 shape: inputs and result in one compressed payload, a uid
     per job (its content id, so an older export of the same job is still recognised), updated_at
-    NULL while it equals created_at; ids and the id sequence are kept. The text index is rebuilt
-    and the counts table filled. A row whose stored JSON cannot be read is kept as it was stored
-    (payload format 0 holding the two texts), so nothing is dropped."""
+    NULL while it equals created_at; ids, the id sequence and the change history are kept. The text
+    index is rebuilt and the counts table filled. A row whose stored JSON cannot be read is kept as
+    it was stored (payload format 0 holding the two texts; it reads as damaged, as before), so
+    nothing is dropped."""
     import json
     import uuid
 
@@ -47,44 +88,46 @@ def _v3_to_v4(conn: sqlite3.Connection) -> None:
     for trigger in schema.TEXT_TRIGGERS:
         conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
     conn.execute(f"DROP TABLE IF EXISTS {schema.TEXT_INDEX}")
-    conn.execute(schema.jobs_table("sqlite", "jobs_v4"))
-    columns = [c for c, _ in schema.JOBS_V4]
-    insert = f"INSERT INTO jobs_v4 ({', '.join(columns)}) VALUES ({', '.join('?' * len(columns))})"
+    conn.execute(schema.table_ddl("sqlite", "jobs", "jobs_v5"))
+    columns = [c for c, _ in schema.JOBS_V5]
+    insert = f"INSERT INTO jobs_v5 ({', '.join(columns)}) VALUES ({', '.join('?' * len(columns))})"
     seen: set[bytes] = set()
-    cursor = conn.execute(f"SELECT {', '.join(schema.V3_COLUMNS)}, search_text FROM jobs ORDER BY id")
+    cursor = conn.execute(f"SELECT {', '.join(schema.V4_COLUMNS)}, search_text FROM jobs ORDER BY id")
     while True:
         batch = cursor.fetchmany(1000)
         if not batch:
             break
         rows = []
         for (job_id, created, updated, version, asset, location, by, note, verdict, material, fitted,
-             deleted_at, inputs_json, result_json, text) in batch:
+             deleted_at, inputs_json, result_json, fitted_on, outcome, outcome_date, text) in batch:
             try:
                 inputs, result = json.loads(inputs_json), json.loads(result_json)
                 blob = payload.encode(inputs, result)
                 uid = content_uid(created, inputs, result).bytes
-            except (ValueError, TypeError):
+            except (ValueError, TypeError, RecursionError, LogError):
                 blob = bytes([payload.FORMAT_PLAIN]) + f"{inputs_json}\x00{result_json}".encode()
                 uid = uuid.uuid4().bytes
             if uid in seen:  # the same job saved twice in the same microsecond: keep both
                 uid = uuid.uuid4().bytes
             seen.add(uid)
-            rows.append((job_id, uid, created, None if updated == created else updated, version, "", "",
-                         asset, location, by, note, verdict, material, fitted, deleted_at, blob, text))
+            rows.append((job_id, uid, created, None if updated == created else updated, version or "", "", "",
+                         asset or "", location or "", by or "", note or "", verdict or "", material or "",
+                         fitted or "", deleted_at, blob, text or "", fitted_on or "", outcome or "",
+                         outcome_date or ""))
         conn.executemany(insert, rows)
     conn.execute("DROP TABLE jobs")
-    conn.execute("ALTER TABLE jobs_v4 RENAME TO jobs")
+    conn.execute("ALTER TABLE jobs_v5 RENAME TO jobs")
     if sequence is not None:
         conn.execute("DELETE FROM sqlite_sequence WHERE name = 'jobs'")
         conn.execute("INSERT INTO sqlite_sequence (name, seq) VALUES ('jobs', ?)", (sequence[0],))
-    for statement in (*schema.SQLITE_V4_INDEXES, *schema.SQLITE_COUNTS, schema.COUNTS_FILL):
+    for statement in (*schema.SQLITE_V5_INDEXES, *schema.SQLITE_COUNTS, schema.COUNTS_FILL):
         conn.execute(statement)
     if text_index_supported():
         build_text_index(conn)
 
 
 STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {
-    1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3, 4: _v3_to_v4,
+    1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3, 4: _v3_to_v4, 5: _v4_to_v5,
 }
 """STEPS[n] brings a log from version n - 1 to version n."""
 
@@ -92,6 +135,23 @@ STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {
 def user_version(conn: sqlite3.Connection) -> int:
     """The schema version recorded in the file (0 for a new, empty file)."""
     return int(conn.execute("PRAGMA user_version").fetchone()[0])
+
+
+def version_from_tables(conn: sqlite3.Connection) -> int | None:
+    """The schema version a log's tables show, for a file of ours whose ``user_version`` was lost
+    (reset to 0 by another tool): the newest version whose every column and table is there, or
+    None if there is no jobs table of ours at all."""
+    columns = {row[1] for row in conn.execute("PRAGMA table_info(jobs)")}
+    tables = {row[0] for row in conn.execute("SELECT name FROM sqlite_master WHERE type = 'table'")}
+    if {"id", "uid", "payload", "bench"} <= columns and "job_changes" in tables:
+        return 5
+    if not {"id", "created_at", "inputs_json", "result_json"} <= columns:
+        return None
+    if {"fitted_on", "outcome", "outcome_date"} <= columns and "job_changes" in tables:
+        return 4
+    if {"fitted", "deleted_at", "search_text"} <= columns:
+        return 3 if schema.TEXT_INDEX in tables else 2
+    return 1
 
 
 def migrate(conn: sqlite3.Connection, target: int = schema.LATEST_VERSION) -> int:
@@ -109,8 +169,13 @@ def migrate(conn: sqlite3.Connection, target: int = schema.LATEST_VERSION) -> in
             if current >= target:
                 conn.execute("ROLLBACK")
                 return current
-            STEPS[current + 1](conn)
-            conn.execute(f"PRAGMA user_version = {current + 1}")
+            if current == 0 and target == schema.LATEST_VERSION:
+                _create_latest(conn)  # a new log is made at the latest version in one step
+                reached = target
+            else:
+                STEPS[current + 1](conn)
+                reached = current + 1
+            conn.execute(f"PRAGMA user_version = {reached}")
             conn.execute("COMMIT")
         except BaseException:
             conn.execute("ROLLBACK")

@@ -42,27 +42,29 @@ CONNECT_TIMEOUT_S = 10
 LOCK_KEY = 0x53424A4C  # advisory lock held while creating or migrating ("SBJL")
 
 # Forward steps of the PostgreSQL log; STEPS[n] brings it from version n - 1 to n. The first
-# PostgreSQL version is 4, the SQLite version whose jobs table it shares.
-V4 = (
+# PostgreSQL version is 5, the SQLite version whose tables it shares.
+V5 = (
     "CREATE EXTENSION IF NOT EXISTS pg_trgm",
     f"CREATE TABLE {META_TABLE} (key TEXT PRIMARY KEY, value TEXT NOT NULL)",
-    schema.jobs_table("postgresql"),
+    schema.table_ddl("postgresql", "jobs"),
+    schema.table_ddl("postgresql", "job_changes"),
+    "CREATE INDEX job_changes_job ON job_changes (job_id, id)",
     "CREATE UNIQUE INDEX jobs_uid ON jobs (uid)",
     "CREATE INDEX jobs_listing ON jobs (deleted_at, created_at, id)",
     "CREATE INDEX jobs_time ON jobs (created_at, id)",
     "CREATE INDEX jobs_text ON jobs USING gin (search_text gin_trgm_ops)",
 )
-FIRST_VERSION = 4
+FIRST_VERSION = 5
 
 
-def _create_v4(conn: Any) -> None:
-    for statement in V4:
+def _create_v5(conn: Any) -> None:
+    for statement in V5:
         conn.execute(statement)
     conn.execute(f"INSERT INTO {META_TABLE} (key, value) VALUES ('application', %s)", (APPLICATION,))
-    conn.execute(f"INSERT INTO {META_TABLE} (key, value) VALUES ('schema_version', '4')")
+    conn.execute(f"INSERT INTO {META_TABLE} (key, value) VALUES ('schema_version', '5')")
 
 
-STEPS = {4: _create_v4}
+STEPS = {5: _create_v5}
 
 
 def shown_url(url: str) -> str:
@@ -299,4 +301,4 @@ def drop_log_tables(url: str) -> None:
     import psycopg
 
     with psycopg.connect(url, autocommit=True, connect_timeout=CONNECT_TIMEOUT_S) as conn:
-        conn.execute(f"DROP TABLE IF EXISTS jobs, {META_TABLE}")
+        conn.execute(f"DROP TABLE IF EXISTS jobs, job_changes, {META_TABLE}")

@@ -9,10 +9,20 @@ from typing import Any
 VERDICTS = ("pass", "marginal", "fail")
 META_FIELDS = ("asset", "location", "by", "note", "fitted")
 """The notes around a job that can be changed after it was saved."""
+OUTCOME_FIELDS = ("fitted_on", "outcome", "outcome_date")
+"""When the fitted shaft went in and how it ended (schema v4)."""
+OUTCOMES = ("still-running", "failed", "removed")
+"""How a fitted shaft ended: still running, failed again (on a date), removed."""
+EDITABLE_FIELDS = META_FIELDS + OUTCOME_FIELDS
+"""Everything ``JobLog.update`` (``shaftbench log edit``) can change."""
 
 
 class LogError(Exception):
     """A problem with the job log that a person can act on; ``str(err)`` is one line."""
+
+
+class DamagedRow(Exception):
+    """A stored job whose inputs or result cannot be read back; ``str(err)`` names the job."""
 
 
 @dataclass(frozen=True)
@@ -40,6 +50,12 @@ class JobRecord:
     """UTC ISO time the job was moved to the bin, or None."""
     inputs: dict[str, str] = field(repr=False)
     result: dict[str, Any] = field(repr=False)
+    fitted_on: str = ""
+    """ISO date (YYYY-MM-DD) the fitted shaft went in, or empty."""
+    outcome: str = ""
+    """How it ended: empty (not recorded), ``still-running``, ``failed`` or ``removed``."""
+    outcome_date: str = ""
+    """ISO date of the outcome (when it failed, was removed or was last seen running), or empty."""
     uid: str = ""
     """The job's unique id, made by the bench that saved it (a resend of the same save adds nothing)."""
     bench: str = ""
@@ -69,6 +85,9 @@ class JobRecord:
             "deleted_at": self.deleted_at,
             "inputs": self.inputs,
             "result": self.result,
+            "fitted_on": self.fitted_on,
+            "outcome": self.outcome,
+            "outcome_date": self.outcome_date,
             "uid": self.uid,
             "bench": self.bench,
             "origin": self.origin,

@@ -17,7 +17,7 @@ from contextlib import contextmanager
 from pathlib import Path
 from typing import Any
 
-from workbench.store import migrations, schema
+from workbench.store import migrations, schema, sqlite_files
 from workbench.store.log import INSERT, JobLog
 from workbench.store.paths import create_private_file, default_log_path, make_private_dirs
 from workbench.store.records import LogError
@@ -25,41 +25,39 @@ from workbench.store.text_search import INDEX_LOOKUP_LIMIT, TextPlan, TrigramSea
 from workbench.store.values import bound
 
 BUSY_TIMEOUT_S = 10.0
-SQLITE_MAGIC = b"SQLite format 3\x00"
-PAGE_SIZE = 16384
-"""Page size of a new log: a job row (about 1 KB) wastes less of a 16 KiB page than of a 4 KiB one
-(measured 1,436 -> 1,358 bytes a job at 20,000 jobs, bench/bench_log.py's jobs)."""
+OLD_PAYLOAD = "CAST(X'00' || '[' || inputs_json || ',' || result_json || ']' AS BLOB) AS payload"
+"""An older log's inputs and result read as one uncompressed payload (format 0), for reading it
+read-only without migrating."""
 
 
-def check_header(path: Path) -> None:
-    """Refuse a file that is not an SQLite database or is shorter than its header says."""
+def check_file(path: Path) -> None:
+    """Refuse a file that is not an SQLite database, or that is shorter than its header says and
+    that SQLite cannot recover from the WAL beside it (see workbench/store/sqlite_files.py)."""
     try:
-        size = path.stat().st_size
-        if size == 0:
-            return
-        with open(path, "rb") as handle:
-            head = handle.read(100)
-    except PermissionError:
-        raise LogError(f"cannot read the job log {path}: permission denied") from None
-    except IsADirectoryError:
-        raise LogError(f"{path} is a folder, not a job log file") from None
-    if len(head) < 100 or not head.startswith(SQLITE_MAGIC):
-        raise LogError(f"{path} is not a Shaftbench job log (not an SQLite file); it was left unchanged")
-    page_size = int.from_bytes(head[16:18], "big")
-    page_size = 65536 if page_size == 1 else page_size
-    page_count = int.from_bytes(head[28:32], "big")
-    header_size_valid = head[24:28] == head[92:96]
-    if size % page_size or (header_size_valid and page_count and size < page_size * page_count):
-        raise LogError(
-            f"the job log {path} is damaged (cut short: {size} of {page_size * page_count} bytes); "
-            "it was left unchanged - restore it from a backup"
-        )
+        header = sqlite_files.read_header(path)
+    except sqlite_files.FileProblem as problem:
+        if str(problem) == "permission denied":
+            raise LogError(f"cannot read the job log {path}: permission denied") from None
+        if str(problem) == "folder":
+            raise LogError(f"{path} is a folder, not a job log file") from None
+        raise LogError(f"{path} is not a Shaftbench job log (not an SQLite file); it was left unchanged") from None
+    if header is None or not header.short:
+        return
+    if sqlite_files.has_wal_frames(path) and sqlite_files.recoverable(path):
+        return  # a checkpoint was cut short; SQLite replays the WAL on open and finishes it on close
+    expected = header.page_size * header.page_count
+    raise LogError(
+        f"the job log {path} is damaged (cut short: {header.size} of {expected} bytes); "
+        "it was left unchanged - restore it from a backup"
+    )
 
 
 def friendly(err: sqlite3.Error, path: Path) -> LogError:
     """An SQLite error as the one-line message a person can act on."""
     text = str(err)
     low = text.lower()
+    if sqlite_files.is_full_disk_error(err, path.parent):
+        return LogError(f"the disk holding the job log {path} is full; nothing was saved - free some space")
     if "locked" in low or "busy" in low:
         return LogError(f"the job log {path} is busy (another program holds it); try again")
     if "readonly" in low or "read-only" in low:
@@ -68,9 +66,11 @@ def friendly(err: sqlite3.Error, path: Path) -> LogError:
         return LogError(f"cannot open the job log {path} (is the folder writable?)")
     if "not a database" in low or "malformed" in low or "corrupt" in low:
         return LogError(f"the job log {path} is damaged ({text}); it was left unchanged")
-    if "disk" in low and "full" in low:
-        return LogError(f"the disk holding the job log {path} is full; nothing was saved")
     return LogError(f"job log {path}: {text}")
+
+
+def sqlite_files_has_table(conn: sqlite3.Connection, name: str) -> bool:
+    return conn.execute("SELECT 1 FROM sqlite_master WHERE name = ?", (name,)).fetchone() is not None
 
 
 class SqliteJobLog(TrigramSearch, JobLog):
@@ -85,18 +85,26 @@ class SqliteJobLog(TrigramSearch, JobLog):
         """True if text filters use the trigram index (schema v3 with FTS5); False: LIKE over every row."""
         self._match_count_cache: tuple[Any, int] | None = None
         self._count_cache: tuple[Any, int] | None = None
+        self._has_counts = True
+        self.skipped: list[str] = []
 
     # -- opening and closing -------------------------------------------------------------
 
     @classmethod
     def open_file(cls, path: str | os.PathLike[str] | None = None, *, create: bool = True) -> SqliteJobLog:
-        """Open (and create or migrate, if needed) the job log file at ``path`` or the default path."""
+        """Open (and create or migrate, if needed) the job log file at ``path`` or the default path.
+
+        A log this process may not write (a read-only file, folder or mount) is opened read-only:
+        it can be listed, shown and exported; a change to it is refused with a message.
+        """
+        if path is not None and not str(path).strip():
+            raise LogError("the job log name is empty: name a file, or leave it out for the default log")
         path = Path(path).expanduser() if path else default_log_path()
         created = False
+        read_only = False
         if path.exists():
-            check_header(path)
-            if not os.access(path, os.R_OK | os.W_OK) or not os.access(path.parent, os.W_OK | os.X_OK):
-                raise LogError(f"the job log {path} is read-only; use --log to choose a writable file")
+            check_file(path)
+            read_only = not sqlite_files.writable(path)
         elif not create:
             raise LogError(f"there is no job log at {path}")
         else:
@@ -106,27 +114,40 @@ class SqliteJobLog(TrigramSearch, JobLog):
             except PermissionError:
                 raise LogError(f"cannot create the job log {path}: the folder is read-only") from None
             except OSError as err:
+                if sqlite_files.is_full_disk_error(err, path.parent):
+                    raise LogError(f"cannot create the job log {path}: the disk holding it is full") from None
                 raise LogError(f"cannot create the job log {path}: {err.strerror or err}") from None
+        side_files = sqlite_files.side_files_exist(path)
+        conn: sqlite3.Connection | None = None
+        columns, has_history = schema.JOB_COLUMNS, True
         try:
-            conn = sqlite3.connect(
-                str(path), timeout=BUSY_TIMEOUT_S, isolation_level=None, check_same_thread=True
-            )
-        except sqlite3.Error as err:
-            raise friendly(err, path) from None
-        try:
-            text_index = cls._prepare(conn, path)
+            if read_only:
+                conn = sqlite_files.connect_read_only(path, BUSY_TIMEOUT_S)
+                columns, text_index, has_history = cls._prepare_read_only(conn, path)
+            else:
+                conn = sqlite3.connect(
+                    str(path), timeout=BUSY_TIMEOUT_S, isolation_level=None, check_same_thread=True
+                )
+                text_index = cls._prepare(conn, path)
         except BaseException as err:
-            conn.close()
+            if conn is not None:
+                conn.close()
+            sqlite_files.tidy_empty_side_files(path, side_files)
             if created and path.exists() and path.stat().st_size == 0:
                 path.unlink()
             if isinstance(err, sqlite3.Error):
                 raise friendly(err, path) from None
             raise
-        return cls(conn, path, text_index=text_index)
+        log = cls(conn, path, text_index=text_index)
+        log.read_only, log._columns, log._has_history = read_only, columns, has_history
+        log._has_counts = not read_only or sqlite_files_has_table(conn, schema.COUNTS_TABLE)
+        return log
 
     @staticmethod
-    def _prepare(conn: sqlite3.Connection, path: Path) -> bool:
-        # Read-only probes first: nothing is written until the file is known to be ours.
+    def _identify(conn: sqlite3.Connection, path: Path) -> int:
+        """The file's schema version after read-only probes; refuses a file that is not ours or is
+        from a newer version. A file of ours whose version was lost (0 with our tables) gets the
+        version its tables show, returned negative: it must be written back before migrating."""
         version = migrations.user_version(conn)
         app_id = int(conn.execute("PRAGMA application_id").fetchone()[0])
         has_tables = conn.execute("SELECT count(*) FROM sqlite_master").fetchone()[0] > 0
@@ -137,9 +158,18 @@ class SqliteJobLog(TrigramSearch, JobLog):
                 f"the job log {path} was written by a newer Shaftbench (log format v{version}, this "
                 f"version reads up to v{schema.LATEST_VERSION}); upgrade Shaftbench - the file was left unchanged"
             )
+        if version == 0 and has_tables:
+            found = migrations.version_from_tables(conn)
+            if found is None:
+                raise LogError(f"the job log {path} has tables but no job table of ours; it was left unchanged")
+            return -found
+        return version
+
+    @staticmethod
+    def _prepare(conn: sqlite3.Connection, path: Path) -> bool:
+        # Read-only probes first: nothing is written until the file is known to be ours.
+        version = SqliteJobLog._identify(conn, path)
         conn.execute(f"PRAGMA busy_timeout = {int(BUSY_TIMEOUT_S * 1000)}")
-        if version == 0 and not has_tables:
-            conn.execute(f"PRAGMA page_size = {PAGE_SIZE}")  # before the first table; WAL keeps it
         deadline = time.monotonic() + BUSY_TIMEOUT_S
         while True:  # switching to WAL needs a moment alone with the file
             try:
@@ -152,10 +182,38 @@ class SqliteJobLog(TrigramSearch, JobLog):
         if str(mode).lower() != "wal":
             raise LogError(f"the job log {path} cannot use write-ahead logging (journal mode {mode})")
         conn.execute("PRAGMA synchronous = FULL")
+        if version < 0:  # ours, with its version number lost: write back what the tables show
+            version = -version
+            conn.execute(f"PRAGMA user_version = {version}")
         if 0 < version < schema.LATEST_VERSION:
             SqliteJobLog._backup_before_migrating(conn, path, version)
         migrations.migrate(conn)
         return migrations.ensure_text_index(conn)
+
+    @staticmethod
+    def _prepare_read_only(conn: sqlite3.Connection, path: Path) -> tuple[tuple[str, ...], bool, bool]:
+        """For a log opened read-only (nothing is migrated or written): the columns to read (those an
+        older version lacks read as empty), whether the text index can be used, whether the change
+        history exists."""
+        version = abs(SqliteJobLog._identify(conn, path))
+        if version == 0:
+            raise LogError(f"the job log {path} is empty and read-only; use --log to choose a writable file")
+        present = {row[1] for row in conn.execute("PRAGMA table_info(jobs)")}
+        def column(name: str) -> str:
+            if name in present:
+                return name
+            if name == "payload" and {"inputs_json", "result_json"} <= present:
+                return OLD_PAYLOAD
+            return f"NULL AS {name}" if name in ("deleted_at", "uid", "payload") else f"'' AS {name}"
+
+        columns = tuple(column(name) for name in schema.JOB_COLUMNS)
+        parts = {row[0] for row in conn.execute("SELECT name FROM sqlite_master")}
+        text_index = (
+            migrations.text_index_supported()
+            and {schema.TEXT_INDEX, *schema.TEXT_TRIGGERS} <= parts
+            and "search_text" in present
+        )
+        return columns, bool(text_index), "job_changes" in parts
 
     @staticmethod
     def _backup_before_migrating(conn: sqlite3.Connection, path: Path, version: int) -> None:
@@ -188,6 +246,8 @@ class SqliteJobLog(TrigramSearch, JobLog):
     def _write(self) -> Iterator[sqlite3.Connection]:
         """One write transaction: all of it is saved (durably) or none of it."""
         conn = self.conn
+        if self.read_only:
+            raise LogError(f"the job log {self.path} is read-only; use --log to choose a writable file")
         try:
             conn.execute("BEGIN IMMEDIATE")
         except sqlite3.Error as err:
@@ -215,7 +275,10 @@ class SqliteJobLog(TrigramSearch, JobLog):
         return uid.bytes
 
     def _stream(self, sql: str) -> Iterator[tuple[Any, ...]]:
-        cursor = self.conn.execute(sql)
+        try:
+            cursor = self.conn.execute(sql)
+        except sqlite3.Error as err:
+            raise friendly(err, self.path) from None
         try:
             while True:
                 batch = cursor.fetchmany(500)
@@ -268,7 +331,8 @@ class SqliteJobLog(TrigramSearch, JobLog):
 
     def _count(self, text: str, verdict: Any, since: Any, until: Any, deleted: bool | None) -> int:
         clauses, params, narrowed = self._filters(verdict, since, until, deleted)
-        if not filter_words(text) and bound(since, "since", end=False) is None and bound(until, "until", end=True) is None:
+        if (self._has_counts and not filter_words(text) and bound(since, "since", end=False) is None
+                and bound(until, "until", end=True) is None):
             return self._count_from_table(verdict, deleted)
         plan = self._text_plan(text, full_count=not narrowed and deleted is not True)
         if plan.matched == 0:
@@ -310,10 +374,10 @@ class SqliteJobLog(TrigramSearch, JobLog):
 
     def bulk_insert(self, rows: Iterable[tuple[Any, ...]]) -> int:
         """Insert ready-made job rows (``values.job_row`` tuples with fresh uids) in one
-        transaction, without looking for duplicates: the bulk path benchmarks fill a log with."""
+        transaction, without looking for duplicates: the bulk path benchmarks fill a log with.
+        The text index and the counts are made once at the end, in the same transaction."""
         count = 0
         with self._write() as conn:
-            # The index and the counts are made once at the end, not row by row (same transaction).
             for trigger in (*schema.TEXT_TRIGGERS, *schema.COUNT_TRIGGERS):
                 conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
             for row in rows:

@@ -10,9 +10,10 @@ from collections.abc import Mapping
 from datetime import date, datetime, timedelta, timezone
 from typing import Any
 
-from workbench.store import payload, schema
+from workbench.store import payload
 from workbench.store.payload import payload_json
-from workbench.store.records import META_FIELDS, JobRecord, LogError
+from workbench.store.records import META_FIELDS, OUTCOMES, DamagedRow, JobRecord, LogError
+from workbench.store.search_words import job_search_text
 
 
 def now_utc() -> str:
@@ -20,19 +21,56 @@ def now_utc() -> str:
     return datetime.now(timezone.utc).isoformat(timespec="microseconds")
 
 
+def cut(text: str, limit: int = 60) -> str:
+    """A value for a one-line message: at most ``limit`` characters."""
+    return text if len(text) <= limit else text[: limit - 1] + "…"
+
+
 def iso_utc(value: str, what: str) -> str:
     """Normalise an ISO time string to the stored form (UTC, microseconds)."""
+    shown = cut(repr(value))
     try:
         moment = datetime.fromisoformat(str(value).replace("Z", "+00:00"))
     except ValueError:
-        raise LogError(f"{what}: expected an ISO date-time like 2025-03-01T08:30:00Z, got {value!r}") from None
+        raise LogError(f"{what}: expected an ISO date-time like 2025-03-01T08:30:00Z, got {shown}") from None
     if moment.tzinfo is None:
         moment = moment.replace(tzinfo=timezone.utc)
-    return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+    try:
+        return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+    except OverflowError:  # e.g. 9999-12-31T23:00-05:00 is in the year 10000 in UTC
+        raise LogError(f"{what}: {shown} is outside the years 1 to 9999 in UTC") from None
+
+
+def iso_date(value: Any, what: str) -> str:
+    """An ISO calendar date (YYYY-MM-DD) or empty; a LogError naming ``what`` otherwise."""
+    text = text_value(value, what).strip()
+    if not text:
+        return ""
+    try:
+        return date.fromisoformat(text).isoformat()
+    except ValueError:
+        raise LogError(f"{what}: expected a date like 2025-03-01, got {cut(repr(text))}") from None
+
+
+MATCH_NONE_SINCE = "A"
+"""A lower bound above every stored time (they start with digits): ``created_at >= 'A'`` is never true."""
+MATCH_NONE_UNTIL = "0"
+"""An upper bound below every stored time: ``created_at < '0'`` is never true."""
+
+
+def _beyond(*, past_the_end: bool, end: bool) -> str | None:
+    """The stored-form bound for a time outside the years 1 to 9999 in UTC (None: no bound)."""
+    if end:
+        return None if past_the_end else MATCH_NONE_UNTIL
+    return MATCH_NONE_SINCE if past_the_end else None
 
 
 def bound(value: date | datetime | str | None, what: str, *, end: bool) -> str | None:
-    """A ``since``/``until`` filter as a stored-form time; dates are whole UTC days (until inclusive)."""
+    """A ``since``/``until`` filter as a stored-form time; dates are whole UTC days (until inclusive).
+
+    At the calendar's edges a bound can fall past year 9999 or before year 1 in UTC, where no stored
+    time can be: such a bound lets every job through on its side, or none.
+    """
     if value is None or value == "":
         return None
     if isinstance(value, str):
@@ -40,14 +78,21 @@ def bound(value: date | datetime | str | None, what: str, *, end: bool) -> str |
         try:
             value = date.fromisoformat(text) if len(text) == 10 else datetime.fromisoformat(text.replace("Z", "+00:00"))
         except ValueError:
-            raise LogError(f"{what}: expected a date like 2025-03-01 (UTC), got {text!r}") from None
+            raise LogError(f"{what}: expected a date like 2025-03-01 (UTC), got {cut(repr(text))}") from None
     if isinstance(value, datetime):
         moment = value if value.tzinfo else value.replace(tzinfo=timezone.utc)
-        return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+        try:
+            return moment.astimezone(timezone.utc).isoformat(timespec="microseconds")
+        except OverflowError:
+            offset = moment.utcoffset() or timedelta(0)
+            return _beyond(past_the_end=offset < timedelta(0), end=end)
     if isinstance(value, date):
-        day = value + timedelta(days=1) if end else value
+        try:
+            day = value + timedelta(days=1) if end else value
+        except OverflowError:
+            return _beyond(past_the_end=True, end=end)
         return datetime(day.year, day.month, day.day, tzinfo=timezone.utc).isoformat(timespec="microseconds")
-    raise LogError(f"{what}: expected a date, got {value!r}")
+    raise LogError(f"{what}: expected a date, got {cut(repr(value))}")
 
 
 def text_value(value: Any, what: str) -> str:
@@ -57,6 +102,23 @@ def text_value(value: Any, what: str) -> str:
     if not isinstance(value, str):
         raise LogError(f"{what}: expected text, got {type(value).__name__}")
     return value
+
+
+def outcome_fields(meta: Mapping[str, Any]) -> dict[str, str]:
+    """``fitted_on``, ``outcome`` and ``outcome_date`` checked: dates as YYYY-MM-DD, the outcome one
+    of OUTCOMES (``failed`` needs its date), the outcome not before the fitting."""
+    fitted_on = iso_date(meta.get("fitted_on"), "fitted_on")
+    outcome = text_value(meta.get("outcome"), "outcome").strip().casefold()
+    outcome_date = iso_date(meta.get("outcome_date"), "outcome_date")
+    if outcome and outcome not in OUTCOMES:
+        raise LogError(f"outcome: expected one of {', '.join(OUTCOMES)}, got {cut(repr(outcome))}")
+    if outcome == "failed" and not outcome_date:
+        raise LogError("outcome: failed needs the date it failed (e.g. failed 2025-03-01)")
+    if outcome_date and not outcome:
+        raise LogError("outcome_date: give the outcome too (still-running, failed or removed)")
+    if fitted_on and outcome_date and outcome_date < fitted_on:
+        raise LogError(f"outcome_date: {outcome_date} is before the shaft was fitted ({fitted_on})")
+    return {"fitted_on": fitted_on, "outcome": outcome, "outcome_date": outcome_date}
 
 
 def inputs_json(inputs: Any) -> str:
@@ -102,10 +164,13 @@ def material_of(inputs: Mapping[str, str], result: Mapping[str, Any]) -> str:
 INSERT_COLUMNS = (
     "uid", "created_at", "updated_at", "program_version", "bench", "origin", "asset", "location",
     "by", "note", "verdict", "material", "fitted", "deleted_at", "payload", "search_text",
+    "fitted_on", "outcome", "outcome_date",
 )
 """The columns of ``job_row``'s tuple, in order (``uid`` is a ``uuid.UUID``; engines adapt it)."""
+KEPT_ON_REPLACE = ("uid", "created_at", "deleted_at", "bench", "origin")
+"""Columns a job keeps when its result is replaced (``JobLog.replace_result``)."""
 
-UID_NAMESPACE = uuid.UUID("6f1d3c2e-8a4b-5c7d-9e0f-53424a4c0004")
+UID_NAMESPACE = uuid.UUID("6f1d3c2e-8a4b-5c7d-9e0f-53424a4c0005")
 """Namespace of the content ids given to jobs that came without a uid (older logs and exports)."""
 BENCH_ENV_VAR = "SHAFTBENCH_BENCH"
 
@@ -133,7 +198,7 @@ def parse_uid(value: Any) -> uuid.UUID:
     try:
         return uuid.UUID(str(value))
     except ValueError:
-        raise LogError(f"uid: expected a UUID like 1b4e28ba-2fa1-11d2-883f-0016d3cca427, got {value!r}") from None
+        raise LogError(f"uid: expected a UUID like 1b4e28ba-2fa1-11d2-883f-0016d3cca427, got {cut(repr(value))}") from None
 
 
 def job_row(
@@ -152,14 +217,14 @@ def job_row(
 ) -> tuple[Any, ...]:
     """One job as the values of INSERT_COLUMNS, every field checked (LogError names a bad one).
 
-    ``stored_payload``: the payload already encoded for these inputs and result (bulk paths that
-    store one result many times); otherwise it is encoded here.
-
     Without ``uid`` a new random one is made (a fresh save); the caller passes ``content_uid`` for
-    jobs that come without one."""
+    jobs that come without one. ``bench`` defaults to ``bench_name()``. ``stored_payload``: the
+    payload already encoded for these inputs and result (bulk paths that store one result many
+    times); otherwise it is encoded here."""
     inputs_json(inputs)  # checks the inputs' shape
     result_json(result)  # checks the result is a JSON-ready mapping
     text = {name: text_value(meta.get(name), name) for name in META_FIELDS}
+    ending = outcome_fields(meta)
     if program_version is None:
         program = result.get("program")
         program_version = program.get("version") if isinstance(program, Mapping) else None
@@ -185,25 +250,44 @@ def job_row(
         text["fitted"],
         deleted_at,
         stored_payload if stored_payload is not None else payload.encode(inputs, result),
-        schema.search_text(text["asset"], text["location"], text["note"], material),
+        job_search_text({**text, **ending, "material": material}, inputs, result),
+        ending["fitted_on"],
+        ending["outcome"],
+        ending["outcome_date"],
     )
 
 
 def uid_text(value: Any) -> str:
     """A stored uid (16 bytes in SQLite, a UUID in PostgreSQL) as its usual text form."""
+    if value is None or value == "":
+        return ""
     if isinstance(value, (bytes, bytearray, memoryview)):
         return str(uuid.UUID(bytes=bytes(value)))
     return str(value)
 
 
+def _decoded(stored: Any, job_id: Any) -> tuple[dict[str, str], dict[str, Any]]:
+    try:
+        inputs, result = payload.decode(stored)
+    except LogError as err:
+        raise DamagedRow(f"job {job_id} cannot be read: {str(err).replace('stored job: ', 'its ')}") from None
+    for what, value in (("inputs", inputs), ("result", result)):
+        if not isinstance(value, dict):
+            raise DamagedRow(f"job {job_id} cannot be read: its stored {what} is damaged "
+                             f"({'null' if value is None else type(value).__name__}, not an object)")
+    return inputs, result
+
+
 def record_from_row(row: tuple[Any, ...]) -> JobRecord:
-    """A JobRecord from a row of ``schema.JOB_COLUMNS``."""
+    """A JobRecord from a row of ``schema.JOB_COLUMNS``; DamagedRow if its payload cannot be read."""
     (job_id, created, updated, version, asset, location, by, note, verdict, material, fitted,
-     deleted_at, stored, uid, bench, origin) = row
-    inputs, result = payload.decode(stored)
+     deleted_at, stored, fitted_on, outcome, outcome_date, uid, bench, origin) = row
+    inputs, result = _decoded(stored, job_id)
     return JobRecord(
-        id=job_id, created_at=created, updated_at=updated or created, program_version=version,
-        asset=asset, location=location, by=by, note=note, verdict=verdict, material=material,
-        fitted=fitted, deleted_at=deleted_at, inputs=inputs, result=result,
-        uid=uid_text(uid), bench=bench, origin=origin,
+        id=job_id, created_at=created, updated_at=updated or created, program_version=version or "",
+        asset=asset or "", location=location or "", by=by or "", note=note or "", verdict=verdict or "",
+        material=material or "", fitted=fitted or "", deleted_at=deleted_at,
+        inputs=inputs, result=result,
+        fitted_on=fitted_on or "", outcome=outcome or "", outcome_date=outcome_date or "",
+        uid=uid_text(uid), bench=bench or "", origin=origin or "",
     )

@@ -55,6 +55,8 @@ class ShaftbenchApp(App):
         self.initial_inputs = initial_inputs
         self.meta: dict[str, str] = {}
         self.clean_inputs: dict[str, str] = {}  # the sheet as last saved, reopened or started
+        self.logged_job_id: int | None = None
+        """The log's job the sheet holds (reopened or saved), so saving again asks update or new."""
 
     def get_default_screen(self) -> JobScreen:
         """The job sheet is the bottom screen: one screen to compose before the first frame."""
@@ -256,12 +258,14 @@ class ShaftbenchApp(App):
         if result is None:
             self.notify("Nothing to save yet: the sheet has no current result.", severity="warning")
             return
-        self.push_screen(SaveScreen(self.inputs(), result, self.meta, self.log_path), self._saved)
+        self.push_screen(SaveScreen(self.inputs(), result, self.meta, self.log_path, job_id=self.logged_job_id),
+                         self._saved)
 
     def _saved(self, outcome: dict[str, Any] | None) -> None:
         if outcome:
             self.mark_clean()
             self.meta = {k: outcome[k] for k in ("asset", "location", "by", "note") if k in outcome}
+            self.logged_job_id = outcome.get("job_id")
 
     def action_review(self) -> None:
         """Open the job log; reopen or duplicate a saved job."""
@@ -279,6 +283,7 @@ class ShaftbenchApp(App):
         self.job_screen.sheet.load_inputs(inputs)
         self.mark_clean()
         job_id = choice.get("job_id", "?")
+        self.logged_job_id = None
         if choice.get("action") == "duplicate":
             self.meta = {}
             self.notify(f"Copy of job {job_id} on the sheet; saving makes a new entry.")
@@ -297,6 +302,7 @@ class ShaftbenchApp(App):
                         markup=False)
             return
         record = reopened.record
+        self.logged_job_id = record.id
         self.meta = {"asset": record.asset, "location": record.location, "by": record.by, "note": record.note}
         if reopened.error:
             self.notify(f"Job {job_id} reopened, but today's program refuses it: {reopened.error}",
@@ -315,6 +321,7 @@ class ShaftbenchApp(App):
 
         def load() -> None:
             self.meta = dict(DEMO_META)
+            self.logged_job_id = None
             self.job_screen.sheet.load_inputs(demo_inputs())
             self.mark_clean()
 
@@ -331,6 +338,7 @@ class ShaftbenchApp(App):
 
         self.meta = {}
         self.clean_inputs = {}
+        self.logged_job_id = None
         sheet = self.job_screen.sheet
         sheet.restore({key: (spec.choices[0] if spec.choices else "") for key, spec in FIELD_BY_KEY.items()})
         self.job_screen.query_one("#power").focus()

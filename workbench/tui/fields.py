@@ -20,6 +20,11 @@ CRITERIA = ("goodman", "gerber", "asme-elliptic", "soderberg")
 BEARING_TYPES = ("deep-groove-ball", "cylindrical-roller", "tapered-roller", "spherical-roller",
                  "self-aligning-ball", "spherical-ball")
 ELEMENT_POSITIONS = ("overhung", "between")
+DRIVEN_POSITIONS = ("none", "between", "far-end")
+YES_NO = ("no", "yes")
+#: hub materials of data/hub_materials.csv, the default (steel) first; kept equal by a test
+HUB_MATERIALS = ("steel", "steel-s355", "steel-1045", "ductile-iron-400", "ductile-iron-500",
+                 "ductile-iron-600", "cast-iron-200", "cast-iron-250", "cast-iron-astm30")
 
 
 @dataclass(frozen=True)
@@ -91,12 +96,18 @@ SECTIONS: tuple[SectionSpec, ...] = (
             FieldSpec("load_from_bearing", "From bearing", "to load · bare = mm", placeholder="e.g. 150"),
             FieldSpec("hub_length", "Hub length", "along the shaft", placeholder="default"),
             FieldSpec("element_mass", "Element mass", "kg, lb · bare = kg", placeholder="not known"),
+            FieldSpec("hub_material", "Hub material", "for the key", choices=HUB_MATERIALS),
             FieldSpec("journal", "Journals", "as found · bare = mm", placeholder="= shaft"),
             FieldSpec("seat", "Hub seat", "as found · bare = mm", placeholder="= shaft"),
             FieldSpec("fillet", "Fillet r", "as found · bare = mm", placeholder="r/d 0.02"),
             FieldSpec("candidate_journal", "Cand. journals", "bare = mm", placeholder="= as found"),
             FieldSpec("candidate_seat", "Cand. seat", "bare = mm", placeholder="= as found"),
             FieldSpec("candidate_fillet", "Cand. fillet", "bare = mm", placeholder="r/d 0.02"),
+            FieldSpec("as_bar", "Run as bar", "square-bore units", choices=YES_NO),
+            FieldSpec("driven_position", "Driven elem.", "drum, fan wheel", choices=DRIVEN_POSITIONS),
+            FieldSpec("driven_from_bearing", "Driven at", "from its bearing", placeholder="e.g. 200"),
+            FieldSpec("driven_mass", "Driven mass", "bare = kg", placeholder="0"),
+            FieldSpec("driven_load", "Driven load", "radial · bare = N", placeholder="0"),
         ),
     ),
     SectionSpec(
@@ -119,10 +130,17 @@ ERROR_TARGET = {"shaft": "shaft_size", "candidate": "candidate_size"}
 
 #: choice fields whose first entry is the contract default: left out of the inputs when unchanged
 CHOICE_DEFAULTS = {"mount": "coupling", "criterion": "goodman", "bearing_type": BEARING_TYPES[0],
-                   "element_position": ELEMENT_POSITIONS[0]}
+                   "element_position": ELEMENT_POSITIONS[0], "hub_material": HUB_MATERIALS[0],
+                   "as_bar": YES_NO[0], "driven_position": DRIVEN_POSITIONS[0]}
 
-#: layout fields shown only for one choice of another field (hidden rows are skipped by Tab)
-SHOWN_WHEN = {"load_from_bearing": ("element_position", "between")}
+#: layout fields shown (and sent) only for some picks of another field; hidden rows are skipped
+#: by Tab, so the standard job costs no keys for them
+SHOWN_WHEN = {
+    "load_from_bearing": ("element_position", ("between",)),
+    "driven_from_bearing": ("driven_position", ("between", "far-end")),
+    "driven_mass": ("driven_position", ("between", "far-end")),
+    "driven_load": ("driven_position", ("between", "far-end")),
+}
 
 SECOND_LABEL = {"tube": "Bore", "flat": "Thickness"}
 SIZE_HINT = {
@@ -214,7 +232,7 @@ def compose_spec(profile: str, size: str, second: str, keyseat: str, finish: str
     else:
         body = f"{profile} {with_mm(size)}"
     words = [body, *shape_words]
-    if keyseat == "keyed":  # a square, hex or flat bar is keyed in its turned hub seat
+    if keyseat == "keyed":  # any profile: the keyseat is cut in the turned hub seat
         words.append("keyed")
     if finish and finish != "machined":
         words.append(finish)

@@ -49,6 +49,8 @@ def steps_tables(result: Mapping[str, Any] | None, system: str) -> Group:
             for label, value in checks:
                 grid.add_row(label, value)
             parts.append(grid)
+        for note in shaft.get("steps_notes") or []:
+            parts.append(Text(f"note: {note}", style="italic"))
         parts.append(Text(""))
     if not parts:
         parts.append(Text("no steps in this result", style="dim"))

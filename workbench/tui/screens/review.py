@@ -184,6 +184,8 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         Binding("d", "delete", "Bin", id="review.delete", tooltip="Move this job to the bin (asks first)"),
         Binding("r", "restore", "Restore", id="review.restore", tooltip="Bring this job back from the bin"),
         Binding("x", "card", "Card", id="review.card", tooltip="Write this job's card to a file"),
+        Binding("e", "edit", "Edit", id="review.edit",
+                tooltip="Record what was fitted, when, and how it ended (kept with the time of the change)"),
         Binding("t", "recheck", "Recheck", id="review.recheck",
                 tooltip="Recompute with today's program and list what differs"),
         Binding("b", "toggle_bin", "Show bin", id="review.bin", tooltip="Switch between the log and the bin"),
@@ -510,6 +512,20 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
             self.app.call_from_thread(self.notify, str(err), severity="error", markup=False)
             return
         self.app.call_from_thread(self.notify, f"Card of job {record.id} written to {path}.", markup=False)
+
+    def action_edit(self) -> None:
+        from .outcome import OutcomeScreen
+
+        record = self.current()
+        if record is None:
+            self.notify("No job highlighted.", severity="warning")
+            return
+
+        def edited(done: dict[str, Any] | None) -> None:
+            if done:
+                self.reload(self.page)
+
+        self.app.push_screen(OutcomeScreen(record, self.log_path), edited)
 
     def action_recheck(self) -> None:
         record = self.current()
