@@ -130,3 +130,19 @@ async def test_keys_typed_right_after_f6_land_in_the_save_dialog(make_app, tmp_p
         assert screen.query_one("#save-asset").value == "CV-09"
         assert screen.query_one("#save-location").value == "Bay 2"
         assert app.job_screen.sheet.value("power") == "7.5 kW"  # nothing leaked into the sheet
+
+
+async def test_pagedown_typed_ahead_moves_before_the_next_keys(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        burst(app, "7.5⏎1450⏎3⏎")
+        event = events.Key("pagedown", None)
+        event.set_sender(app)
+        app._driver.send_message(event)
+        burst(app, "v⇥200⇥60")
+        await settle(pilot)
+        sheet = app.job_screen.sheet
+        assert (sheet.value("ratio"), sheet.value("efficiency")) == ("3", "")
+        assert (sheet.value("mount"), sheet.value("pitch_diameter"), sheet.value("overhang")) == (
+            "vbelt", "200", "60")

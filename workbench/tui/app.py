@@ -352,7 +352,7 @@ class ShaftbenchApp(App):
         self.logged_job_id = None
         sheet = self.job_screen.sheet
         sheet.restore({key: (spec.choices[0] if spec.choices else "") for key, spec in FIELD_BY_KEY.items()})
-        self.job_screen.query_one("#power").focus()
+        self.job_screen.set_focus(self.job_screen.query_one("#power"))
         sheet.scroll_home(animate=False)
 
     async def action_quit(self) -> None:
