@@ -135,8 +135,29 @@ async def test_a_core_failure_is_said_on_its_field(make_app):
         await settle(pilot)
         assert app.is_running
         error = plain_text(app.job_screen.query_one("#error-shaft_size", Static))
-        assert "shaft" in error and "material" in error
+        assert "shaft" in error and "double-d" in error and "half the diameter" in error
         assert app.job_screen.result is None
+
+
+def test_an_unforeseen_core_error_is_put_on_the_field_it_comes_from(monkeypatch):
+    """Any exception of the core (not only JobInputError) comes back as a field message: the field
+    is found by giving each likely field its stand-in until the job computes."""
+    import workbench.job as job
+    from workbench.tui import engine
+
+    real = job.evaluate_inputs
+
+    def failing(inputs, **kwargs):
+        if inputs.get("candidate") == "square 41mm":
+            raise ValueError("a case the core never met")
+        return real(inputs, **kwargs)
+
+    monkeypatch.setattr(job, "evaluate_inputs", failing)
+    evaluation = engine.evaluate({"power": "7.5 kW", "speed": "1450 rpm", "shaft": "round 40mm",
+                                  "candidate": "square 41mm"})
+    assert evaluation.result is None
+    assert set(evaluation.errors) == {"candidate"}
+    assert "a case the core never met" in evaluation.errors["candidate"]
 
 
 async def test_save_failure_naming_a_markup_path_is_shown_as_written(make_app, tmp_path):
