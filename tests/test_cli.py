@@ -316,3 +316,53 @@ def test_unknown_material_message_quotes_the_key(capsys):
     code, out, err = run_main(capsys, ["check", "--demo", "--material", "nope"])
     assert code == EXIT_BAD_INPUT
     assert "'nope'" in err
+
+
+def test_material_list_prints_every_typeable_name():
+    """`--material list` lists the keys (a size-ranged grade once) and the designations."""
+    import json as _json
+    import subprocess as _sp
+    import sys as _sys
+
+    out = _sp.run([_sys.executable, "-m", "workbench", "check", "--material", "list", "--json"],
+                  capture_output=True, text=True, check=True).stdout
+    data = _json.loads(out)
+    keys = [row["key"] for row in data["materials"]]
+    assert "c45-qt" in keys and "1045-cd" in keys and "c45-qt-16-40" not in keys
+    assert any(d["name"] == "EN19" and d["key"] == "42crmo4-qt" for d in data["designations"])
+
+
+def test_stock_takes_units_and_still_the_old_system_option():
+    import json as _json
+    import subprocess as _sp
+    import sys as _sys
+
+    def labels(*options):
+        out = _sp.run([_sys.executable, "-m", "workbench", "stock", "--demo", "--profile", "square",
+                       "--json", *options], capture_output=True, text=True, check=True).stdout
+        return _json.loads(out)["system"], [r["label"] for r in _json.loads(out)["rows"]]
+
+    assert labels("--units", "inch") == labels("--system", "inch")
+    assert labels("--units", "inch")[0] == "inch"
+    help_text = _sp.run([_sys.executable, "-m", "workbench", "stock", "--help"],
+                        capture_output=True, text=True).stdout
+    assert "--units" in help_text and "--system" not in help_text  # one option shown
+
+
+def test_substitute_rounds_to_a_caliper_step_up_and_shows_the_next_stock():
+    """Equal strength in torsion of a plain round 40 mm by a square: side a with
+    0.208 a^3 = pi d^3 / 16 (Roark 7th ed. Table 10.7 case 4 coefficient 0.208) gives a = 39.2 mm;
+    the fitter's figure is the least size rounded UP to 0.1 mm."""
+    import json as _json
+    import subprocess as _sp
+    import sys as _sys
+
+    out = _sp.run([_sys.executable, "-m", "workbench", "substitute", "--shaft", "round 40mm", "--json"],
+                  capture_output=True, text=True, check=True).stdout
+    rows = [r for r in _json.loads(out)["equivalents"] if r["profile"] == "square" and r["basis"] == "strength"]
+    (row,) = rows
+    exact_mm = row["size_m"] * 1000
+    assert abs(exact_mm - 39.23) < 0.2  # closed form above, 0.5 % tolerance for the 0.208 rounding
+    shown = float(row["label"].split()[1].removesuffix("mm"))
+    assert exact_mm <= shown < exact_mm + 0.1 + 1e-9
+    assert row["next_stock"] == "square 40mm"

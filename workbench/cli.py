@@ -3,7 +3,7 @@
     shaftbench [--demo] [--log PATH]        open the workbench (Textual)
     shaftbench check   [job options] [--json] [--save ...]
     shaftbench substitute --shaft SPEC [--json]
-    shaftbench stock --profile square [--system metric] [--materials a,b] [job options] [--json]
+    shaftbench stock --profile square [--units metric] [--materials a,b] [job options] [--json]
     shaftbench log ...                      the job log (list, show, export, import, card, ...)
     shaftbench fit SIZE CLASS [--measured LEN ...] [--json]   ISO 286 limits and fits (cli_fit.py)
 
@@ -109,9 +109,9 @@ def _add_job_options(parser: argparse.ArgumentParser, only: tuple[str, ...] | No
                            help="the candidate runs through square-bore bearings and hubs as it is: no journal, no keyseat")
 
 
-def _add_output_options(parser: argparse.ArgumentParser) -> None:
+def _add_output_options(parser: argparse.ArgumentParser, units_help: str = "units of the report") -> None:
     parser.add_argument("--json", action="store_true", help="print one JSON object (SI units) instead of the report")
-    parser.add_argument("--units", choices=("metric", "inch"), default="metric", help="units of the report")
+    parser.add_argument("--units", choices=("metric", "inch"), default="metric", type=str.lower, help=units_help)
 
 
 def build_parser() -> argparse.ArgumentParser:
@@ -143,10 +143,12 @@ def build_parser() -> argparse.ArgumentParser:
 
     stock = commands.add_parser("stock", help="check standard stock sizes and find the smallest that passes")
     _add_job_options(stock)
-    _add_output_options(stock)
+    _add_output_options(stock, "metric | inch: the stock sizes searched and the report's units (default metric)")
     stock.add_argument("--demo", action="store_true", help="start from the demo job")
     stock.add_argument("--profile", default="round", help="round | square | flat | hex | tube (default round)")
-    stock.add_argument("--system", default="metric", help="metric | inch (default metric)")
+    # the older name of --units, kept so that scripts written for it still run; not in --help
+    stock.add_argument("--system", dest="units", choices=("metric", "inch"), type=str.lower,
+                       help=argparse.SUPPRESS)
     stock.add_argument("--materials", metavar="KEYS", help="comma-separated material keys (default: the job's)")
     stock.add_argument("--all", action="store_true", help="list every size, not only up to the first passes")
     stock.add_argument("--keyed", action="store_true",
@@ -244,7 +246,7 @@ def run_stock(args: argparse.Namespace) -> int:
     from workbench.job import stock_inputs
 
     keys = [k.strip() for k in args.materials.split(",") if k.strip()] if args.materials else None
-    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.system.lower(), keys, keyed=args.keyed)
+    result = stock_inputs(_inputs_from(args), args.profile.lower(), args.units, keys, keyed=args.keyed)
     if not args.all:
         result = {**result, "rows": _up_to_first_passes(result["rows"])}
     if args.json:
@@ -283,6 +285,11 @@ def main(argv: list[str] | None = None) -> int:
     parser = build_parser()
     args = parser.parse_args(argv)
     func = getattr(args, "func", None) or run_workbench
+    if "list" in (str(getattr(args, "material", "") or "").lower(),
+                  str(getattr(args, "candidate_material", "") or "").lower()):
+        from workbench.cli_materials import print_material_list
+
+        return print_material_list(json_out=bool(getattr(args, "json", False)))
     try:
         code = func(args)
         sys.stdout.flush()  # a closed pipe or full disk shows here, not as "Exception ignored" at exit

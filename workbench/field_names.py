@@ -34,3 +34,21 @@ def option_for(key: str) -> str:
 def label_for(key: str) -> str:
     """The workbench label of an input key (``pitch_diameter`` -> ``Pitch diameter``)."""
     return LABELS.get(key, key.replace("_", " ").capitalize())
+
+
+_BY_OPTION = {option: key for key, option in OPTIONS.items()}
+
+
+def warning_for_workbench(line: str) -> str:
+    """A job warning as the workbench shows it: the leading ``--option:`` becomes the field label
+    (``--overhang: ...`` -> ``Overhang: ...``); a line without one is left as it is."""
+    option, sep, rest = line.partition(": ")
+    if sep and option.startswith("--"):
+        key = _BY_OPTION.get(option, option[2:].replace("-", "_"))
+        return f"{label_for(key)}: {rest}"
+    return line
+
+
+def workbench_warning_lines(result: dict) -> list[str]:
+    """The job's ``warnings`` worded for the workbench's verdict panel (labels, not options)."""
+    return [warning_for_workbench(line) for line in result.get("warnings") or []]

@@ -86,13 +86,25 @@ def _number(inputs, key, default, low, high) -> float:
 
 
 def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
-    """A material from the table by key (``1045-cd``; ``c45-qt`` picks the row for the bar size)
-    or typed in: ``custom Sy=350MPa Sut=600MPa [E=207GPa G=79.3GPa rho=7850]``."""
+    """A material from the table by key (``1045-cd``; ``c45-qt`` picks the row for the bar size),
+    by a common designation (``EN19``, ``C45``, ``1045``: see ``data/material_names.csv``; the
+    shaft's notes say how it was read), or typed in:
+    ``custom Sy=350MPa Sut=600MPa [E=207GPa G=79.3GPa rho=7850]``."""
+    from workbench.core.material_names import designation, grade_keys, nearest_names
+
     text = text.strip()
     if text.lower().startswith("custom"):
         return _custom_material(field, text)
+    named = designation(text)
+    key = named.key if named is not None else text.lower()
+    if named is None and key not in materials() and key not in grade_keys():
+        close = nearest_names(text)
+        hint = f"; did you mean {', '.join(close)}?" if close else ""
+        raise QuantityError(field, f"unknown material {text!r}{hint} (--material list shows every name)")
+    grade = _size_ranged_grade(key)
+    if grade and not materials()[key].covers(size_m):
+        key = grade  # another size range of the same grade: the row for this bar is picked
     try:
-        key = text.lower()
         row = material(key) if key in materials() else material_for_size(key, size_m)
     except KeyError as err:
         raise QuantityError(field, str(err.args[0])) from None
@@ -379,7 +391,7 @@ def _shaft_dict(case: ShaftCase, check: ShaftCheck, inputs: Mapping[str, str]) -
         "governing": check.governing,
         "why": check.why,
         "methods": check.methods,
-        "notes": _material_notes(case),
+        "notes": _material_notes(case) + _reading_notes(case, inputs),
         **step_fields(check),
     }
 
@@ -412,6 +424,33 @@ def _modulus(case: ShaftCase) -> float:
     return row.E_Pa if row is not None else 207e9
 
 
+def _size_ranged_grade(key: str) -> str:
+    """``c45-qt`` for a size-ranged row key ``c45-qt-16-40``; "" for any other key."""
+    import re
+
+    if key not in materials() or materials()[key].size_max_m is None:
+        return ""
+    match = re.fullmatch(r"(.+)-\d+(?:\.\d+)?-\d+(?:\.\d+)?", key)
+    return match.group(1) if match else ""
+
+
+def _reading_notes(case: ShaftCase, inputs: Mapping[str, str]) -> list[str]:
+    """How a material designation (EN19, C45…) typed for this shaft was read, if one was; and
+    the size-range row picked when the one typed is for another bar size."""
+    from workbench.core.material_names import reading_note
+
+    text = _given(inputs, "material") or DEFAULT_MATERIAL
+    if case.role == "candidate":
+        text = _given(inputs, "candidate_material") or text
+    typed = text.strip().lower()
+    if _size_ranged_grade(typed) and typed != case.material.key:
+        return [f"{typed} is the row for another bar size; this {case.geometry.size_m * 1000:g} mm bar "
+                f"takes {case.material.key} (the row is picked by the bar size: type "
+                f"{_size_ranged_grade(typed)})"]
+    note = reading_note(text, case.material.key)
+    return [note] if note else []
+
+
 def _material_notes(case: ShaftCase) -> list[str]:
     """Cautions about the material row: strengths that hold for another bar size."""
     row = materials().get(case.material.key)
@@ -432,6 +471,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
     ``{"existing": {...}, "equivalents": [...], "fit_facts": [...], "cautions": [...]}``.
     """
     from workbench.core.substitution import HOLDS_FOR, equivalents, fit_facts
+    from workbench.measured import measured_size_text
     from workbench.specs import format_spec
 
     try:
@@ -451,7 +491,7 @@ def substitute_inputs(inputs: Mapping[str, str]) -> dict:
             "basis": eq.basis,
             "size_m": eq.geometry.size_m,
             "second_m": eq.geometry.second_m,
-            "label": format_spec(eq.geometry, system),
+            "label": measured_size_text(eq.geometry, system),  # as measured; exact in size_m
             "strength_ratio": eq.strength_ratio,
             "stiffness_ratio": eq.stiffness_ratio,
             "mass_ratio": eq.mass_ratio,

@@ -227,3 +227,41 @@ def test_arbitrary_text_in_any_field_never_ends_the_app(tmp_path_factory, entrie
                 assert field.value == first_line or field.value == text
 
     asyncio.run(run())
+
+
+async def test_inch_display_reads_bare_lengths_as_inches_and_keeps_the_unit(make_app, tmp_path):
+    """After F5 (inch), a bare 1.5 is 1.5 in (38.1 mm, exact by definition of the inch) and goes
+    into the job with its unit, so the saved job reads the same in either display."""
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        await _type(pilot, "power", "7.5")
+        await _type(pilot, "speed", "1450")
+        await _type(pilot, "shaft_size", "1.25")  # metric display: 1.25 mm, far too small
+        await settle(pilot)
+        error = plain_text(app.job_screen.query_one("#error-shaft_size", Static))
+        assert "did you mean 1.25 in" in error
+        await pilot.press("f5")  # the job does not change: the 1.25 typed in metric is written 1.25mm
+        await settle(pilot)
+        assert app.inputs()["shaft"] == "round 1.25mm"
+        await _type(pilot, "shaft_size", "1.25")
+        await settle(pilot)
+        assert app.inputs()["shaft"] == "round 1.25in"
+        await _type(pilot, "shaft_size", "1 1/2")
+        await _type(pilot, "overhang", "2")
+        app.job_screen.sheet.row("mount").set_value("vbelt")
+        await _type(pilot, "pitch_diameter", "8")
+        await settle(pilot)
+        inputs = app.inputs()
+        assert inputs["shaft"] == "round 1-1/2in" and inputs["overhang"] == "2in"
+        assert inputs["pitch_diameter"] == "8in"
+        shaft = app.job_screen.result["shafts"][0]
+        assert abs(shaft["dimensions_m"]["size_m"] - 0.0381) < 1e-9
+        assert "bare = in" in plain_text(app.job_screen.query_one("#hint-shaft_size", Static))
+        await pilot.press("f5")  # back to metric: the job does not change, the units are written out
+        await settle(pilot)
+        assert app.inputs() == inputs
+        assert app.job_screen.sheet.value("overhang") == "2in"
+        await _type(pilot, "pitch_diameter", "200")  # metric again: bare = mm
+        await settle(pilot)
+        assert app.job_screen.result["mount"]["pitch_diameter_m"] == 0.2

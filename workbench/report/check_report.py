@@ -167,13 +167,12 @@ def render_substitution(result: dict, system: str = "metric") -> Group:
     """Equivalent bars for the shaft as found, with their ratios and the fit facts."""
     table = Table(title=Text(f"Equivalents of {result['existing']['spec']} (plain sections, same material; "
                              "figures for the body step)"))
-    for name in ("profile", "basis", "size", "strength", "stiffness", "mass", "next stock up"):
+    for name in ("profile", "basis", "at least", "next stock up", "strength", "stiffness", "mass"):
         table.add_column(name)
     for row in result["equivalents"]:
         table.add_row(
-            row["profile"], row["basis"], Text(row["label"]),
+            row["profile"], row["basis"], Text(row["label"]), Text(row.get("next_stock") or "—"),
             f"{row['strength_ratio']:.2f}", f"{row['stiffness_ratio']:.2f}", f"{row['mass_ratio']:.2f}",
-            Text(row.get("next_stock") or "—"),
         )
     facts = Text("\n".join(f"- {fact}" for fact in result["fit_facts"]))
     return Group(table, Panel(facts, title="Fit facts", title_align="left"), cautions_panel(result["cautions"]))

@@ -244,6 +244,8 @@ class ShaftbenchApp(App):
         self.system = "inch" if self.system == "metric" else "metric"
         screen = self.job_screen
         screen.panel.set_system(self.system)
+        # what is typed keeps its meaning; from now on a bare length means the new display's unit
+        screen.sheet.set_system(self.system, previous="metric" if self.system == "inch" else "inch")
         screen.update_title()
         if hasattr(self.screen, "set_system"):
             self.screen.set_system(self.system)

@@ -160,10 +160,11 @@ def stock(
 
 
 def material_keys() -> list[str]:
-    """The material keys of the shop table (data/materials.csv), in file order."""
-    from workbench.core.tables import materials
+    """What a material field completes: the keys a fitter types (a size-ranged grade once, its row
+    picked by the bar size), then the common designations (EN19, C45…), in file order."""
+    from workbench.core.material_names import grade_keys, material_names
 
-    return list(materials())
+    return grade_keys() + [entry.name for entry in material_names().values()]
 
 
 def section_maps(specs: list[tuple[str, str]], cols: int, rows: int) -> list[dict[str, Any]]:

@@ -9,7 +9,7 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal
 from textual.screen import Screen
-from textual.widgets import Footer, Input, Static
+from textual.widgets import Input, Static
 from textual.worker import get_current_worker
 
 from .. import engine
@@ -17,11 +17,14 @@ from ..messages import EvaluationReady, SheetChanged
 from ..typeahead import MOVE_BINDINGS, TypeAheadMixin
 from ..undo import History
 from ..widgets.choice import Choice
+from ..widgets.fitting_footer import FittingFooter
 from ..widgets.job_sheet import JobSheet
 from ..widgets.steady import update_in_place
 from ..widgets.verdict_panel import VerdictPanel
 
 NARROW_BELOW = 100
+#: below this the verdict column is too narrow to read (a table of two shafts needs ~40 columns)
+MIN_WIDTH, MIN_HEIGHT = 76, 16
 
 
 class JobScreen(TypeAheadMixin, Screen):
@@ -29,7 +32,12 @@ class JobScreen(TypeAheadMixin, Screen):
 
     BINDINGS = [
         *MOVE_BINDINGS,
-        Binding("ctrl+z", "undo", "Undo", id="job.undo", tooltip="Put back the sheet before the last change"),
+        Binding("f8", "verdict_page", "Verdict", id="job.verdict_page",
+                tooltip="Page through the verdict panel (its end goes back to the top)"),
+        Binding("ctrl+l", "pick_material", "Materials", show=False, id="job.materials",
+                tooltip="Search the material list (for the material field with the cursor)"),
+        Binding("ctrl+z", "undo", "Undo", show=False, id="job.undo",
+                tooltip="Put back the sheet before the last change"),
         Binding("ctrl+y", "redo", "Redo", show=False, id="job.redo"),
     ]
 
@@ -48,7 +56,8 @@ class JobScreen(TypeAheadMixin, Screen):
         with Horizontal(id="job-body"):
             yield JobSheet(id="sheet")
             yield VerdictPanel(id="verdict")
-        yield Footer(compact=True)
+        yield Static("", id="too-small")
+        yield FittingFooter(compact=True)
 
     @property
     def sheet(self) -> JobSheet:
@@ -66,7 +75,16 @@ class JobScreen(TypeAheadMixin, Screen):
         self.query_one("#power").focus()
 
     def on_resize(self, event) -> None:
-        self.set_class(event.size.width < NARROW_BELOW, "-narrow")
+        width, height = event.size
+        self.set_class(width < NARROW_BELOW, "-narrow")
+        small = width < MIN_WIDTH or height < MIN_HEIGHT
+        self.set_class(small, "-too-small")
+        if small:
+            self.query_one("#too-small", Static).update(
+                f"This terminal is {width}×{height}: the workbench needs at least "
+                f"{MIN_WIDTH}×{MIN_HEIGHT} to show the sheet and the verdict side by side. "
+                "Make the window larger (or the font smaller); the job stays as it is."
+            )
 
     def update_title(self) -> None:
         app = self.app
@@ -89,6 +107,26 @@ class JobScreen(TypeAheadMixin, Screen):
     def on_sheet_changed(self, message: SheetChanged) -> None:
         self.history.record(self.sheet.snapshot())
         self.request_evaluation(message.inputs)
+
+    def action_verdict_page(self) -> None:
+        """Show the next screenful of the verdict panel (F8), so nothing in it is out of reach."""
+        self.panel.page()
+
+    def action_pick_material(self) -> None:
+        """Open the material pick-list for the material field with the cursor (else the shaft's)."""
+        from .materials import MaterialPicker
+
+        focused = self.focused
+        key = focused.id if focused is not None and focused.id in ("material", "candidate_material") \
+            else "material"
+        label = "the candidate" if key == "candidate_material" else "the shaft (and the candidate)"
+
+        def take(choice: str | None) -> None:
+            if choice:
+                self.sheet.row(key).set_value(choice)
+                self.query_one(f"#{key}").focus()
+
+        self.app.push_screen(MaterialPicker(label, self.sheet.value(key)), take)
 
     def action_undo(self) -> None:
         """Put back the sheet as it was before the last change."""

@@ -24,6 +24,7 @@ from ..fields import (
     split_size_words,
     split_spec,
 )
+from ..inch_rule import LENGTH_KEYS, bare_length, hint_for, inch_guess, pin_size_unit, pin_unit, size_text
 from ..messages import SheetChanged
 from .choice import Choice
 from .field_row import FieldGrid, FieldRow
@@ -87,10 +88,20 @@ class JobSheet(VerticalScroll, can_focus=False):
         """What is in a sheet field."""
         return self.row(key).value
 
+    @property
+    def system(self) -> str:
+        """The display, "metric" or "inch": a bare length on the sheet is mm or inches with it."""
+        try:
+            return getattr(self.app, "system", "metric")
+        except Exception:  # noqa: BLE001 - no app yet (built outside one): the metric default
+            return "metric"
+
     def shaft_spec(self, prefix: str) -> str:
-        """The spec string built from a shaft block ("" when no size is typed)."""
-        parts = [self.value(f"{prefix}_{part}") for part in _SHAFT_PARTS]
-        return compose_spec(*parts)
+        """The spec string built from a shaft block ("" when no size is typed); in inch display
+        a bare size goes in with ``in`` (see :mod:`workbench.tui.inch_rule`)."""
+        profile, size, second, keyseat, finish = (self.value(f"{prefix}_{part}") for part in _SHAFT_PARTS)
+        system = self.system
+        return compose_spec(profile, size_text(size, system), bare_length(second, system), keyseat, finish)
 
     def inputs(self) -> dict[str, str]:
         """The contract dict: only fields that hold something, strings exactly as typed."""
@@ -101,7 +112,7 @@ class JobSheet(VerticalScroll, can_focus=False):
             text = self.value(key)
             if not text or CHOICE_DEFAULTS.get(key) == text or not self._shown(key):
                 continue
-            out[key] = text
+            out[key] = bare_length(text, self.system) if key in LENGTH_KEYS else text
         for prefix in SHAFT_PREFIXES:
             spec = self.shaft_spec(prefix)
             if spec:
@@ -158,9 +169,36 @@ class JobSheet(VerticalScroll, can_focus=False):
             self.row("candidate_material").set_value("" if same else material)
         self._schedule()
 
+    def set_system(self, system: str, previous: str) -> None:
+        """The display changed (F5) from ``previous``: every bare length already typed gets the
+        unit it was typed in (the job does not change), and hints name the new bare unit."""
+        self._loading = True
+        try:
+            for key, row in self._rows.items():
+                value = row.value
+                if not value:
+                    continue
+                if key in LENGTH_KEYS or key.endswith("_second"):
+                    row.set_value(pin_unit(value, previous))
+                elif key.endswith("_size") and not is_full_spec(value):
+                    row.set_value(pin_size_unit(value, previous))
+        finally:
+            self._loading = False
+        for key, row in self._rows.items():
+            if "bare = mm" in row.spec.hint and not key.endswith(("_size", "_second")):
+                row.set_hint(hint_for(row.spec.hint, system))
+        for prefix in SHAFT_PREFIXES:
+            self._apply_profile(prefix)
+        self._shown_errors = {}  # messages may read differently now
+        self._schedule()
+
     def show_errors(self, errors: dict[str, str]) -> None:
-        """Mark every invalid field in place; clears the others."""
+        """Mark every invalid field in place; clears the others. A bare size too small for mm
+        that reads as a plausible inch size gets "did you mean … in?"."""
         targets = {ERROR_TARGET.get(k, k): m for k, m in errors.items()}
+        for key in list(targets):
+            if key.endswith("_size") or key in LENGTH_KEYS:
+                targets[key] = inch_guess(self.value(key), targets[key], self.system)
         if targets == self._shown_errors:
             return  # the usual keystroke: nothing to re-mark
         for key in set(targets) | set(self._shown_errors):
@@ -183,7 +221,8 @@ class JobSheet(VerticalScroll, can_focus=False):
         second.display = profile in SECOND_LABEL
         second.set_label(SECOND_LABEL.get(profile, "Bore"))
         size_row = self.row(f"{prefix}_size")
-        size_row.set_hint(SIZE_HINT.get(profile, ""))
+        size_row.set_hint(hint_for(SIZE_HINT.get(profile, ""), self.system))
+        second.set_hint(hint_for(FIELD_BY_KEY[f"{prefix}_second"].hint, self.system))
         size_row.set_placeholder(SIZE_PLACEHOLDER.get(profile, "e.g. 40"))
         self._update_spec_line(prefix)
 

@@ -1,4 +1,11 @@
-"""The verdict panel: the shaft as found and the candidate side by side, readable at a glance."""
+"""The verdict panel: the shaft as found and the candidate side by side, readable at a glance.
+
+Top to bottom in the order a fitter needs them, so that the first lines fit any usable terminal:
+the verdict word, the "not current" mark, why each shaft passes or not, the warnings about this
+job's inputs, the facts the verdict rests on (a material's size range) and the candidate / as
+found ratios; then the comparison table. F8 pages through the panel when it is longer than the
+screen (the footer shows the key).
+"""
 
 from __future__ import annotations
 
@@ -70,9 +77,16 @@ class VerdictPanel(VerticalScroll, can_focus=False):
 
     def compose(self):
         yield Static(self._banner_text(), id="verdict-banner")
-        yield Static("", id="verdict-table")
-        yield Static("", id="verdict-why")
         yield Static("", id="verdict-status")
+        yield Static("", id="verdict-why")
+        yield Static("", id="verdict-table")
+
+    def page(self) -> None:
+        """Show the next screenful of the panel; from the end, back to the top."""
+        if self.scroll_y >= self.max_scroll_y:
+            self.scroll_home(animate=False)
+        else:
+            self.scroll_page_down(animate=False)
 
     def _banner_text(self) -> Text:
         if self.result is None:
@@ -81,7 +95,9 @@ class VerdictPanel(VerticalScroll, can_focus=False):
         shafts = self.result.get("shafts", [])
         shaft = next((s for s in shafts if s.get("role") == "candidate"), shafts[0] if shafts else {})
         who = "candidate" if shaft.get("role") == "candidate" else "shaft as found"
-        return Text(f"{display.verdict(word)}  {who} {shaft.get('spec', '')}", style="bold")
+        # a stale verdict never reads as today's: the word says so, not the dimming alone
+        was = "NOT CURRENT · was " if self.stale_note else ""
+        return Text(f"{was}{display.verdict(word)}  {who} {shaft.get('spec', '')}", style="bold")
 
     def show(self, result: dict[str, Any] | None, system: str | None = None) -> None:
         """Display ``result`` (None clears the panel) fresh (not stale)."""
@@ -146,6 +162,11 @@ class VerdictPanel(VerticalScroll, can_focus=False):
         for shaft in shafts:
             title = _ROLE_TITLE.get(shaft.get("role"), "shaft")
             lines.append(Text.assemble((f"why ({title}): ", "bold"), str(shaft.get("why", "—"))))
+        lines.extend(Text(f"! {w}") for w in self.result.get("warnings") or [])
+        lines.extend(Text(f"· {n}") for n in shaft_notes(shafts))
+        ratios = ratio_line(self.result.get("comparison") or {})
+        if ratios:
+            lines.append(Text(ratios))
         cautions = self.result.get("cautions") or []
         if cautions:
             lines.append(Text(f"⚠ {len(cautions)} safety cautions — F1 to read them", style="italic"))
@@ -154,6 +175,31 @@ class VerdictPanel(VerticalScroll, can_focus=False):
     def on_resize(self) -> None:
         if self.result is not None:
             self.refresh_view()
+
+
+def shaft_notes(shafts: list[dict[str, Any]]) -> list[str]:
+    """The notes the verdict rests on (a material's size range…): the candidate's, and the shaft
+    as found's only where its material differs (the same grade's note would say it twice)."""
+    candidate = next((s for s in shafts if s.get("role") == "candidate"), None)
+    out: list[str] = []
+    for shaft in shafts:
+        if candidate is not None and shaft is not candidate and \
+                shaft.get("material") == candidate.get("material"):
+            continue
+        title = _ROLE_TITLE.get(shaft.get("role"), "shaft")
+        out.extend(f"{title}: {note}" if len(shafts) > 1 else str(note) for note in shaft.get("notes") or [])
+    return out
+
+
+def ratio_line(comparison: dict[str, Any]) -> str:
+    """"candidate / as found: strength 0.65×, stiffness 2.29×, mass 1.69×" (as the CLI report)."""
+    parts = [
+        f"{word} {comparison[key]:.2f}×"
+        for word, key in (("strength", "strength_ratio"), ("stiffness", "stiffness_ratio"),
+                          ("mass", "mass_ratio"))
+        if isinstance(comparison.get(key), (int, float))
+    ]
+    return "candidate / as found: " + ", ".join(parts) if parts else ""
 
 
 def _rich_verdict_style(word: str | None) -> str:
