@@ -117,9 +117,6 @@ def render_check(result: dict, system: str = "metric") -> Group:
     warned = warnings_text(result)
     if warned is not None:
         parts.append(warned)
-    from workbench.report.steps_report import steps_panels
-
-    parts.extend(steps_panels(result, system))
     for shaft in result["shafts"]:
         solved = shaft.get("keyseat_solver")
         if solved:
