@@ -72,7 +72,9 @@ def assert_bad_input(code, out, err, field):
     lines = err.strip("\n").split("\n")
     assert len(lines) == 1, err
     assert "Traceback" not in err
-    assert field in lines[0], err
+    from workbench.field_names import option_for
+
+    assert option_for(field) in lines[0], err  # messages name the CLI option, not the internal key
 
 
 # --- options -----------------------------------------------------------------------------------

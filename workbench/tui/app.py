@@ -241,7 +241,7 @@ class ShaftbenchApp(App):
         """The turning sheet of the current job (screens/turning.py)."""
         from .screens.turning import TurningScreen
 
-        self.push_screen(TurningScreen(self.job_screen.result))
+        self.push_screen(TurningScreen(self.job_screen.result, self.inputs()))
 
     def action_fits(self) -> None:
         """The ISO 286 limits and fits calculator (screens/fits.py)."""

@@ -162,7 +162,9 @@ class VerdictPanel(VerticalScroll, can_focus=False):
         for shaft in shafts:
             title = _ROLE_TITLE.get(shaft.get("role"), "shaft")
             lines.append(Text.assemble((f"why ({title}): ", "bold"), str(shaft.get("why", "—"))))
-        lines.extend(Text(f"! {w}") for w in self.result.get("warnings") or [])
+        from workbench.field_names import workbench_warning_lines  # field labels, not CLI options
+
+        lines.extend(Text(f"! {w}") for w in workbench_warning_lines(self.result))
         lines.extend(Text(f"· {n}") for n in shaft_notes(shafts))
         ratios = ratio_line(self.result.get("comparison") or {})
         if ratios:
