@@ -137,7 +137,7 @@ class JobScreen(TypeAheadMixin, Screen):
         focused = self.focused
         key = focused.id if focused is not None and focused.id in ("material", "candidate_material") \
             else "material"
-        label = "the candidate" if key == "candidate_material" else "the shaft (and the candidate)"
+        label = "the candidate" if key == "candidate_material" else "the shaft"
 
         def take(choice: str | None) -> None:
             if choice:
