@@ -10,7 +10,7 @@ from __future__ import annotations
 import io
 
 from rich.console import Console
-from tui.steps_fixture import stepped_result
+from tui.steps_fixture import real_result, stepped_result
 
 from workbench.report.check_report import render_check
 from workbench.report.jobcard import export_card, job_card
@@ -59,10 +59,13 @@ def test_whole_shaft_checks_and_not_checked():
 
 
 def test_cli_report_shows_the_steps_table():
-    """The CLI report's steps panels (workbench.report.steps_report) read the same result."""
     text = _text(render_check(stepped_result()), width=100)
-    assert "Steps" in text and "▶" in text and "shoulder 50/40 mm" in text
-    assert "first critical" in text
+    assert "Steps" in text and "3 ◀" in text and "shoulder 50/40 mm" in text
+    assert "first critical speed" in text
+    text80 = _text(render_check(stepped_result()), width=80)
+    assert "fatigue" in text80 and "3 ◀" in text80  # every column still there at 80 columns
+    real = _text(render_check(real_result()), width=100)
+    assert real.count("Steps") == 1 and "◀" in real  # one steps panel, from the demo as computed
 
 
 def test_job_card_shows_the_steps_table():

@@ -400,8 +400,10 @@ def keyseat_solver(geometry, check: ShaftCheck, design_torque_Nm: float) -> dict
     """The solver's view of a keyseat: true elastic peak shear and the Kts it implies, beside the
     handbook estimate used by the checks (Shigley 9th ed., Table 7-1, end-mill keyseat Kts = 3.0).
 
-    The solver models a long keyseat away from its run-out, so its Kts reads lower than the
-    handbook's, which also covers the 3-D stress at the end of an end-milled seat.
+    The solver models a long keyseat away from its run-out (2-D), with the standard's bottom radius
+    (DIN 6885-1 r1 / B17.1 fillet); the handbook's factor also covers the 3-D stress at the end of
+    an end-milled seat. A non-standard seat or a thin tube wall scales the handbook factor by the
+    solver (workbench.core.keyseat_factors).
     """
     from workbench.core.torsion_solver import solve_torsion
 

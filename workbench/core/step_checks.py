@@ -177,7 +177,7 @@ def check_steps(
     if stiffness is not None:
         assumptions.extend(n for n in stiffness.notes if n not in assumptions)
     if key is not None:
-        assumptions.extend(n for n in key.notes if n.startswith("no hub length") and n not in assumptions)
+        # "no hub length" is already said by the layout's warning
         all_notes.extend(n for n in key.notes if not n.startswith("no hub length") and n not in all_notes)
     verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
                                              stiffness, loads.shaft_speed_rpm)

@@ -8,6 +8,7 @@ from rich.table import Table
 from rich.text import Text
 
 from workbench.report import display as fmt
+from workbench.report.steps import STEPS_LEGEND, is_numeric_column, shaft_checks, step_columns, steps_of, steps_rows
 
 VERDICT_STYLE = {"pass": "bold green", "marginal": "bold yellow", "fail": "bold red"}
 
@@ -78,6 +79,11 @@ def _shafts_table(result: dict, system: str) -> Table:
     return table
 
 
+def _across(spec: str) -> str:
+    """A hex spec shown with "across flats" (its size is measured across the flats)."""
+    return f"{spec} (across flats)" if spec.lower().startswith("hex ") and "across" not in spec else spec
+
+
 def spec_label(shaft: dict) -> str:
     """A shaft's spec as shown: a hex size is said to be across flats."""
     spec = shaft["spec"]
@@ -90,6 +96,28 @@ def warnings_text(result: dict) -> Text | None:
     if not lines:
         return None
     return Text("\n".join(f"⚠ {line}" for line in lines), style="yellow")
+
+
+def steps_panel(result: dict, system: str) -> Panel | None:
+    """Each shaft as its steps (◀ the governing one) and the whole-shaft checks; None if no steps."""
+    parts = []
+    for shaft in result["shafts"]:
+        if not steps_of(shaft):
+            continue
+        table = Table(title=Text(f"{shaft['role']}: {shaft['spec']}"), title_justify="left",
+                      box=None, show_edge=False, pad_edge=False, padding=(0, 1, 0, 0), header_style="bold underline")
+        for column in step_columns(system):
+            table.add_column(column, justify="right" if is_numeric_column(column) else "left",
+                             no_wrap=not column.startswith("step"), min_width=8 if column == "step" else None)
+        for row in steps_rows(shaft, system):
+            table.add_row(*(Text(cell) for cell in row), style="bold" if "◀" in row[0] else "")
+        parts.append(table)
+        for label, value in shaft_checks(shaft, system):
+            parts.append(Text.assemble((f"  {label}: ", "dim"), value))
+    if not parts:
+        return None
+    parts.append(Text(STEPS_LEGEND, style="dim"))
+    return Panel(Group(*parts), title="Steps", title_align="left")
 
 
 def cautions_panel(cautions: list[str]) -> Panel:
@@ -117,6 +145,9 @@ def render_check(result: dict, system: str = "metric") -> Group:
     warned = warnings_text(result)
     if warned is not None:
         parts.append(warned)
+    steps = steps_panel(result, system)
+    if steps is not None:
+        parts.append(steps)
     for shaft in result["shafts"]:
         solved = shaft.get("keyseat_solver")
         if solved:
@@ -168,7 +199,7 @@ def render_substitution(result: dict, system: str = "metric") -> Group:
         table.add_column(name)
     for row in result["equivalents"]:
         table.add_row(
-            row["profile"], row["basis"], Text(row["label"]), Text(row.get("next_stock") or "—"),
+            row["profile"], row["basis"], Text(_across(row["label"])), Text(_across(row.get("next_stock") or "—")),
             f"{row['strength_ratio']:.2f}", f"{row['stiffness_ratio']:.2f}", f"{row['mass_ratio']:.2f}",
         )
     facts = Text("\n".join(f"- {fact}" for fact in result["fit_facts"]))
@@ -177,7 +208,8 @@ def render_substitution(result: dict, system: str = "metric") -> Group:
 
 def render_stock(result: dict, system: str = "metric") -> Group:
     """Stock sizes checked as the candidate, smallest first, with the smallest that passes."""
-    table = Table(title=Text(f"{result['profile']} stock, {result['system']}"))
+    across = " (sizes across flats)" if result["profile"] == "hex" else ""
+    table = Table(title=Text(f"{result['profile']} stock, {result['system']}{across}"))
     for name in ("size", "material", "verdict", "lowest SF", "governing", "mass", "journal"):
         table.add_column(name)
     for row in result["rows"]:
@@ -193,7 +225,7 @@ def render_stock(result: dict, system: str = "metric") -> Group:
     lines = Text()
     for key, best in result["smallest"].items():
         lines.append(f"smallest that passes in {key}: ")
-        lines.append(best["spec"], style="bold")
+        lines.append(_across(best["spec"]), style="bold")
         lines.append("\n")
     for key, best in result.get("smallest_with_existing_journal", {}).items():
         if best is not result["smallest"].get(key) and best["spec"] != result["smallest"].get(key, {}).get("spec"):

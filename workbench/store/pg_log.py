@@ -46,8 +46,8 @@ LOCK_KEY = 0x53424A4C  # advisory lock held while creating or migrating ("SBJL")
 V5 = (
     "CREATE EXTENSION IF NOT EXISTS pg_trgm",
     f"CREATE TABLE {META_TABLE} (key TEXT PRIMARY KEY, value TEXT NOT NULL)",
-    schema.table_ddl("postgresql", "jobs"),
-    schema.table_ddl("postgresql", "job_changes"),
+    schema.table_ddl("postgresql", "jobs", version=5),
+    schema.table_ddl("postgresql", "job_changes", version=5),
     "CREATE INDEX job_changes_job ON job_changes (job_id, id)",
     "CREATE UNIQUE INDEX jobs_uid ON jobs (uid)",
     "CREATE INDEX jobs_listing ON jobs (deleted_at, created_at, id)",
@@ -64,7 +64,15 @@ def _create_v5(conn: Any) -> None:
     conn.execute(f"INSERT INTO {META_TABLE} (key, value) VALUES ('schema_version', '5')")
 
 
-STEPS = {5: _create_v5}
+def _v5_to_v6(conn: Any) -> None:
+    from workbench.store.migrations import fill_asset_keys
+
+    conn.execute("ALTER TABLE jobs ADD COLUMN asset_key TEXT NOT NULL DEFAULT ''")
+    fill_asset_keys(_Writer(conn))
+    conn.execute(schema.ASSET_INDEX)
+
+
+STEPS = {5: _create_v5, 6: _v5_to_v6}
 
 
 def shown_url(url: str) -> str:

@@ -58,6 +58,17 @@ class ShaftbenchApp(App):
         self.logged_job_id: int | None = None
         """The log's job the sheet holds (reopened or saved), so saving again asks update or new."""
 
+    async def on_event(self, event) -> None:
+        """Keys typed ahead are handled in the order typed (see :mod:`workbench.tui.typeahead`)."""
+        from textual import events
+
+        if isinstance(event, events.Key) and not event.is_forwarded:
+            from .typeahead import key_in_order
+
+            if await key_in_order(self, event):
+                return
+        await super().on_event(event)
+
     def get_default_screen(self) -> JobScreen:
         """The job sheet is the bottom screen: one screen to compose before the first frame."""
         inputs = self.initial_inputs
@@ -231,7 +242,7 @@ class ShaftbenchApp(App):
         """The turning sheet of the current job (screens/turning.py)."""
         from .screens.turning import TurningScreen
 
-        self.push_screen(TurningScreen(self.job_screen.result))
+        self.push_screen(TurningScreen(self.job_screen.result, self.inputs()))
 
     def action_fits(self) -> None:
         """The ISO 286 limits and fits calculator (screens/fits.py)."""
@@ -341,7 +352,7 @@ class ShaftbenchApp(App):
         self.logged_job_id = None
         sheet = self.job_screen.sheet
         sheet.restore({key: (spec.choices[0] if spec.choices else "") for key, spec in FIELD_BY_KEY.items()})
-        self.job_screen.query_one("#power").focus()
+        self.job_screen.set_focus(self.job_screen.query_one("#power"))
         sheet.scroll_home(animate=False)
 
     async def action_quit(self) -> None:

@@ -192,6 +192,8 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         Binding("t", "recheck", "Recheck", id="review.recheck",
                 tooltip="Recompute with today's program and list what differs"),
         Binding("b", "toggle_bin", "Show bin", id="review.bin", tooltip="Switch between the log and the bin"),
+        Binding("f12", "asset", "Asset", id="review.asset",
+                tooltip="The history of this job's asset: its shafts on a time chart, MTBR, flags"),
         Binding("n,pagedown", "page(1)", "Next page", id="review.next"),
         Binding("p,pageup", "page(-1)", "Prev page", id="review.prev"),
         Binding("slash", "focus_filter", "Filter", id="review.filter", tooltip="Type to filter"),
@@ -437,6 +439,13 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
 
     def action_reopen(self) -> None:
         self._choose("reopen")
+
+    def action_asset(self) -> None:
+        """Open the asset history of the highlighted job (every asset if it names none)."""
+        from workbench.tui.screens.asset import AssetScreen
+
+        record = self.current()
+        self.app.push_screen(AssetScreen(self.log_path, record.asset if record is not None else ""))
 
     def action_duplicate(self) -> None:
         self._choose("duplicate")

@@ -45,7 +45,10 @@ class Choice(Widget, can_focus=True):
         self.set_reactive(Choice.value, value if value in self.options else self.options[0])
 
     def render(self) -> Text:
-        return Text.assemble(("‹ ", "dim"), self.value, (" ›", "dim"), no_wrap=True, overflow="ellipsis")
+        value, room = self.value, self.size.width - 4  # "‹ " and " ›" around the entry
+        if 0 < room < len(value):
+            value = value[: room - 1] + "…"  # a long entry is cut, never wrapped
+        return Text.assemble(("‹ ", "dim"), value, (" ›", "dim"), no_wrap=True)
 
     def get_content_height(self, container, viewport, width: int) -> int:
         """Always one line: a long entry is cut at the field's width, never wrapped."""
