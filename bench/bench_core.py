@@ -154,9 +154,11 @@ def main(argv: list[str] | None = None) -> None:
     parser.add_argument("--repeat", type=int, default=500, help="timed calls per in-process figure")
     parser.add_argument("--runs", type=int, default=15, help="process runs of each command, alternating")
     args = parser.parse_args(argv)
-    print(f"python {platform.python_version()} on {platform.machine()}, {os.cpu_count()} CPUs")
+    print(f"python {platform.python_version()} on {platform.machine()}, {os.cpu_count()} CPUs, "
+          f"load average {os.getloadavg()[0]:.1f} (figures read true only near 0)")
     bench_evaluation(args.repeat)
     bench_process(args.runs)
+    print(f"load average at the end {os.getloadavg()[0]:.1f}")
 
 
 if __name__ == "__main__":

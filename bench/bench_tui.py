@@ -268,7 +268,8 @@ def main() -> int:
     if args.child:
         _child(args.child[0], int(args.child[1]), int(args.child[2]))
         return 0
-    print(f"python {sys.version.split()[0]}, {os.cpu_count()} CPUs, headless 120 x 40")
+    print(f"python {sys.version.split()[0]}, {os.cpu_count()} CPUs, headless 120 x 40, "
+          f"load average {os.getloadavg()[0]:.1f} (figures read true only near 0)")
 
     _, shape = _spawn("real")  # learn the widget count, and warm the disk cache for both
     inputs, others = shape["inputs"], shape["widgets"] - shape["inputs"]
@@ -303,6 +304,7 @@ def main() -> int:
           f"ms, median [min-max] of {args.section_runs}:")
     print(f"  {spread(section_s):>22s}   {statistics.median(section_s) * 1e3 / SECTION_GOAL_MS:5.2f}x the "
           f"{SECTION_GOAL_MS:.0f} ms goal")
+    print(f"load average at the end {os.getloadavg()[0]:.1f}")
     return 0
 
 

@@ -29,7 +29,7 @@ POWER_JOB = {
     "reliability": "0.9", "twist_limit": "0.5 deg/m",
 }
 TORQUE_JOB = {
-    "torque": "200 Nm", "shaft": "tube 60mm/50mm keyed", "candidate": "flat 100mm x 65mm",
+    "torque": "200 Nm", "shaft": "tube 60mm/30mm keyed", "candidate": "flat 100mm x 65mm",
     "mount": "gear", "pitch_diameter": "120", "overhang": "40", "material": "4140-qt650",
 }
 # A size-ranged grade (c45-qt) is left out of the bases: a changed shaft size may then legitimately

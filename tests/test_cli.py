@@ -72,7 +72,9 @@ def assert_bad_input(code, out, err, field):
     lines = err.strip("\n").split("\n")
     assert len(lines) == 1, err
     assert "Traceback" not in err
-    assert field in lines[0], err
+    from workbench.field_names import option_for
+
+    assert option_for(field) in lines[0], err  # messages name the CLI option, not the internal key
 
 
 # --- options -----------------------------------------------------------------------------------
@@ -366,3 +368,9 @@ def test_substitute_rounds_to_a_caliper_step_up_and_shows_the_next_stock():
     shown = float(row["label"].split()[1].removesuffix("mm"))
     assert exact_mm <= shown < exact_mm + 0.1 + 1e-9
     assert row["next_stock"] == "square 40mm"
+
+
+def test_double_d_flats_that_meet_are_refused_on_one_line(capsys):
+    """Two flats each half the diameter deep leave nothing: refused naming --shaft, no traceback."""
+    assert_bad_input(*run_main(capsys, ["check", "--power", "7.5", "--speed", "1450", "--shaft",
+                                        "round 35mm double-d 17.5mm"]), "--shaft")

@@ -211,8 +211,10 @@ def test_hex_is_shown_across_flats_and_an_across_corners_entry_is_questioned(cap
     """24 mm across flats is 24 x 2/sqrt3 = 27.71 mm across corners (geometry)."""
     result = evaluate_inputs({"torque": "100 N*m", "shaft": "round 25mm", "candidate": "hex 27.7mm"})
     assert any("across corners" in w and "24 mm" in w for w in result["warnings"])
-    code, out, _ = _run(capsys, "check", "--torque", "100 N*m", "--candidate", "hex 27mm")
-    assert code == 0 and "across flats" in out
+    from workbench.report.check_report import spec_label
+
+    shaft = evaluate_inputs({"torque": "100 N*m", "candidate": "hex 27mm"})["shafts"][0]
+    assert spec_label(shaft) == "hex 27mm (across flats)"
 
 
 # 9. service factor --------------------------------------------------------------------------------
@@ -324,3 +326,33 @@ def test_messages_name_the_option_not_the_key(capsys):
     err = _refused(capsys, "--pitch-diameter", "--torque", "100 N*m", "--mount", "vbelt", "--overhang", "60mm",
                    "--shaft", "round 40mm")
     assert "pitch_diameter" not in err
+
+
+@settings(max_examples=80, deadline=None)
+@given(profile=st.sampled_from(["round", "tube", "square", "flat", "hex"]),
+       number=st.one_of(st.floats(0.001, 2000).map(lambda v: f"{v:g}"),
+                        st.tuples(st.integers(0, 40), st.integers(1, 15), st.sampled_from([2, 4, 8, 16, 32, 64]))
+                        .map(lambda t: f"{t[0]}-{t[1]}/{t[2]}" if t[0] else f"{t[1]}/{t[2]}")),
+       unit=st.sampled_from(["", "mm", "in", '"', "cm", "m", "ft"]),
+       second=st.sampled_from(["", "/ 20", "x 12", "/50mm", "x 1/2in"]))
+def test_no_size_spelling_gives_an_unphysical_size_silently(profile, number, unit, second):
+    """Every shaft size read lies within 2 mm .. 500 mm, or the spec is refused naming the field."""
+    spec = f"{profile} {number}{unit} {second}".strip()
+    try:
+        g = parse_spec(spec)
+    except QuantityError as err:
+        assert err.field == "shaft"
+        return
+    assert 2e-3 - 1e-12 <= g.size_m <= 0.5 + 1e-12
+    if g.second_m:
+        assert 2e-3 - 1e-12 <= g.second_m <= 0.5 + 1e-12
+
+
+def test_default_keyseat_radius_follows_the_standard():
+    """DIN 6885-1 r1 for b = 12: 0.25-0.40 mm (smallest used, data/keyseat_radii.csv, from memory);
+    B17.1 1/4 in key: 1/32 in suggested fillet (from memory). The DIN radius is below the 0.8 mm that
+    0.02 d gave a 40 mm shaft."""
+    from workbench.core.keyseat_factors import default_keyseat_radius_m
+
+    assert default_keyseat_radius_m(0.012, "iso") == pytest.approx(0.25e-3)
+    assert default_keyseat_radius_m(0.25 * 0.0254, "ansi") == pytest.approx(0.0254 / 32)

@@ -77,7 +77,7 @@ def test_journal_class_override(capsys):
 def test_bad_options_exit_2_naming_the_field(capsys, argv, field):
     assert main(["check", "--demo", *argv]) == 2
     err = capsys.readouterr().err
-    assert err.count("\n") == 1 and field in err and "Traceback" not in err
+    assert err.count("\n") == 1 and "--" + field.replace("_", "-") in err and "Traceback" not in err
 
 
 def test_report_prints_the_candidates_sheet_by_default(capsys):

@@ -77,10 +77,12 @@ def limit_arg(text: str) -> int:
 
 
 def _whole_number(text: str) -> int | None:
+    """A whole number of ASCII digits (None otherwise). More than 30 digits reads as 10**30, far past
+    any job number, without converting a pasted 5,000-digit string (Python refuses past 4,300)."""
     digits = text.strip().lstrip("+")
-    if not digits.isdigit() or not digits.isascii() or len(digits) > 30:
-        return None if not (digits.isdigit() and digits.isascii()) else 10**30
-    return int(digits)
+    if not (digits.isascii() and digits.isdigit()):
+        return None
+    return 10**30 if len(digits) > 30 else int(digits)
 
 
 def save_from_args(args: argparse.Namespace, inputs: dict[str, str], result: dict[str, Any]) -> int | None:
@@ -177,13 +179,21 @@ def add_log_command(subparsers: Any) -> argparse.ArgumentParser:
         "-y", "--yes", action="store_true",
         help="do not ask; needed when input is not a terminal (scripts). Answering no exits with 1",
     )
+    asset = command("asset", "the history of one asset: its shafts in time order, MTBR and flags", _cmd_asset)
+    asset.add_argument("tag", metavar="TAG", help="the asset tag, as people write it (CV-07, cv07, 'CV 07 head drive')")
+    asset.add_argument("--json", action="store_true", help="print JSON instead of the chart and table")
+    asset.add_argument("-o", "--output", metavar="FILE", help="write a printable HTML asset report to FILE")
+    assets = command("assets", "the site's assets, the ones taking the most shafts first", _cmd_assets)
+    assets.add_argument("--json", action="store_true", help="print JSON instead of a table")
+    command("seed-demo", "add the demo's invented asset history (CV-07 head drive) to the log", _cmd_seed_demo)
     return log
 
 
 def _needs_subcommand(parser: argparse.ArgumentParser) -> Callable[[argparse.Namespace], int]:
     def func(args: argparse.Namespace) -> int:
         parser.print_usage(sys.stderr)
-        print("shaftbench log: choose a command: list, show, edit, export, import, card, delete, restore, purge",
+        print("shaftbench log: choose a command: list, show, edit, export, import, card, delete, restore, purge, "
+              "asset, assets, seed-demo",
               file=sys.stderr)
         return EXIT_USAGE
 
@@ -515,4 +525,55 @@ def _cmd_purge(args: argparse.Namespace) -> int:
                 return EXIT_DECLINED
         removed = log.purge()
     print(f"removed {_jobs(removed)} from the bin for good")
+    return EXIT_OK
+
+
+def _cmd_asset(args: argparse.Namespace) -> int:
+    from workbench.report.asset_report import history_html, history_renderable
+    from workbench.store.assets import asset_history, history_json
+
+    with _open(args) as log:
+        history, _ = asset_history(log, args.tag)
+    if args.output:
+        from workbench.safe_output import write_output
+
+        write_output(args.output, history_html(history))
+        print(f"wrote the asset report to {args.output}", file=sys.stderr)
+        return EXIT_OK
+    if args.json:
+        import json
+
+        sys.stdout.write(json.dumps(history_json(history), ensure_ascii=False, indent=1) + "\n")
+        return EXIT_OK
+    console = _console()
+    console.print(history_renderable(history, width=min(console.width, 120)))
+    return EXIT_OK
+
+
+def _cmd_assets(args: argparse.Namespace) -> int:
+    from workbench.report.asset_report import sites_renderable
+    from workbench.store.assets import site_assets
+
+    with _open(args) as log:
+        found = site_assets(log)
+    if args.json:
+        import json
+
+        sys.stdout.write(json.dumps(found, ensure_ascii=False, indent=1) + "\n")
+        return EXIT_OK
+    if not found:
+        print("no job in the log names an asset")
+        return EXIT_OK
+    _console().print(sites_renderable(found))
+    return EXIT_OK
+
+
+def _cmd_seed_demo(args: argparse.Namespace) -> int:
+    from workbench.demo_history import demo_history_rows
+
+    rows = demo_history_rows()
+    with _open(args, create=True) as log:
+        added = log.import_jobs(rows)
+    print(f"added {added} demo job{'s' if added != 1 else ''} for asset CV-07 head drive"
+          + (f" ({len(rows) - added} already in the log)" if added < len(rows) else ""))
     return EXIT_OK

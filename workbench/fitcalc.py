@@ -72,7 +72,7 @@ def fit_inputs(size_text: str, class_text: str, *, measured: list[list[str]] | N
     (fits only): a measured hub or bearing bore; gives the shaft range that keeps the fit's
     clearances against that bore.
     """
-    from workbench.core.fits import fit, fit_of_zones
+    from workbench.core.fits import fit
     from workbench.core.iso286 import ToleranceError, limits
     from workbench.core.measured import STEEL_EXPANSION_PER_K, assess, shaft_range_for_bore
 
@@ -130,9 +130,8 @@ def fit_inputs(size_text: str, class_text: str, *, measured: list[list[str]] | N
             "uncertainty_m": u, "part_temperature_C": temp, "temperature_correction_m": a.temperature_correction_m,
             "ovality_m": a.ovality_m, "taper_m": a.taper_m,
         })
-        if bore is not None:
-            mc, nc, kind = fit_of_zones(result["bore_m"], result["bore_m"], a.measured_m, a.measured_m)
-            result["measured_clearance_m"] = mc
+        if bore is not None:  # the clearance the measured shaft makes in the measured bore
+            result["measured_clearance_m"] = result["bore_m"] - a.measured_m
     return result
 
 

@@ -111,6 +111,9 @@ def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
     return MaterialProps(row.key, row.name, row.tensile_Pa, row.yield_Pa, row.G_Pa, row.density_kg_m3)
 
 
+_PART_NAMES = {"sy": "Sy", "sut": "Sut", "g": "G", "e": "E", "rho": "rho"}
+
+
 def _custom_material(field: str, text: str) -> MaterialProps:
     values = {}
     for part in text.split()[1:]:
@@ -124,6 +127,17 @@ def _custom_material(field: str, text: str) -> MaterialProps:
     need = {"sy", "sut"}
     if not need <= values.keys():
         raise QuantityError(field, "custom material needs at least Sy=... and Sut=... (e.g. custom Sy=350MPa Sut=600MPa)")
+    def parse_quantity(field_, text, kind, unit, **limits):  # name the part that is wrong (E=banana)
+        from workbench.units import parse_quantity as parse
+
+        part = next((k for k, v in original.items() if v is text), "")
+        try:
+            return parse(field_, text, kind, unit, **limits)
+        except QuantityError as err:
+            raise QuantityError(field_, f"custom material {_PART_NAMES.get(part, part)}: "
+                                        f"{err.message}") from None
+
+    original = dict(values)
     sy = parse_quantity(field, values.pop("sy"), STRESS, "MPa", low=20e6, high=3000e6)
     sut = parse_quantity(field, values.pop("sut"), STRESS, "MPa", low=20e6, high=3000e6)
     if sy > sut:
@@ -400,8 +414,10 @@ def keyseat_solver(geometry, check: ShaftCheck, design_torque_Nm: float) -> dict
     """The solver's view of a keyseat: true elastic peak shear and the Kts it implies, beside the
     handbook estimate used by the checks (Shigley 9th ed., Table 7-1, end-mill keyseat Kts = 3.0).
 
-    The solver models a long keyseat away from its run-out, so its Kts reads lower than the
-    handbook's, which also covers the 3-D stress at the end of an end-milled seat.
+    The solver models a long keyseat away from its run-out (2-D), with the standard's bottom radius
+    (DIN 6885-1 r1 / B17.1 fillet); the handbook's factor also covers the 3-D stress at the end of
+    an end-milled seat. A non-standard seat or a thin tube wall scales the handbook factor by the
+    solver (workbench.core.keyseat_factors).
     """
     from workbench.core.torsion_solver import solve_torsion
 

@@ -179,6 +179,9 @@ def _parse_sized(field: str, profile: str, size_text: str, words: list[str]) -> 
                 if profile != "round":
                     raise QuantityError(field, f"'{word}' (ground flats) is only for a round shaft")
                 options["flats"] = 1 if word == "d-flat" else 2
+                if word == "double-d" and value >= size / 2 * (1 - 1e-9):
+                    raise QuantityError(field, f"double-d flats {words[i]} deep meet in the middle: each "
+                                               f"must be less than half the diameter ({size * 500:g} mm)")
                 options["flat_depth_m"] = value
             else:
                 if profile not in ("square", "flat"):

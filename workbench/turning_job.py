@@ -11,6 +11,7 @@ existing | both: which sheets the report and the job card print; the JSON has ev
 
 from __future__ import annotations
 
+import functools
 from typing import Mapping
 
 TURNING_KEYS = ("bearing", "bearing_mounting", "rotating_ring", "bearing_load", "journal_class", "seat_class",
@@ -151,6 +152,7 @@ def _key_for(shaft: Mapping, steps, standard: str) -> dict | None:
     return {"width_m": row.width_m, "depth_m": row.shaft_depth_m, "length_m": length}
 
 
+@functools.lru_cache(maxsize=256)
 def _is_inch_spec(spec: str) -> bool:
     from workbench.specs import parse_spec
     from workbench.units import QuantityError

@@ -178,3 +178,36 @@ def test_a_server_lost_mid_save_refuses_the_save_and_a_resend_stores_it_once(pg_
     with JobLog.open(pg_url) as log:  # the bench saves again, with the same uid
         job_id = log.save(JOB_INPUTS["demo"], result_for("demo"), asset="CV-07", uid=uid)
         assert log.count(deleted=None) == 1 and log.get(job_id).result == result_for("demo")
+
+
+def _v5_log(url: str, jobs: list[tuple[str, str]]) -> None:
+    """A PostgreSQL log exactly as version 5 made it (before asset_key), holding ``jobs``
+    (asset text, note) saved through version 5's columns."""
+    from workbench.store import payload, pg_log
+
+    with psycopg.connect(url, autocommit=True) as conn:
+        with conn.transaction():
+            pg_log.STEPS[5](conn)
+            for n, (asset, note) in enumerate(jobs):
+                conn.execute(
+                    "INSERT INTO jobs (uid, created_at, asset, note, verdict, payload, search_text, bench) "
+                    "VALUES (%s, %s, %s, %s, 'pass', %s, %s, 'old bench')",
+                    (uuid.uuid4(), f"2025-0{1 + n}-01T08:00:00.000000+00:00", asset, note,
+                     payload.encode(JOB_INPUTS["demo"], result_for("demo")), f"{asset}\n{note}".casefold()),
+                )
+
+
+def test_an_older_postgresql_log_is_migrated_keeping_every_job(pg_url):
+    _v5_log(pg_url, [("CV-07 head drive", "first"), ("cv 7", "second"), ("P-101", "pump"), ("", "no asset")])
+    with JobLog.open(pg_url) as log:
+        with psycopg.connect(pg_url) as conn:
+            assert conn.execute("SELECT value FROM shaftbench_meta WHERE key = 'schema_version'").fetchone()[0] == "6"
+            keys = dict(conn.execute("SELECT note, asset_key FROM jobs").fetchall())
+        assert keys == {"first": "cv7", "second": "cv7", "pump": "p101", "no asset": ""}
+        assert log.count() == 4 and all(r.result == result_for("demo") for r in log.search())
+        from workbench.store.assets import asset_history
+
+        history, records = asset_history(log, "CV-07")
+        assert [r.note for r in records] == ["first", "second"]
+        assert log.save(JOB_INPUTS["mixer"], result_for("mixer"), asset="CV-07") > 0
+        assert len(asset_history(log, "cv07")[1]) == 3

@@ -38,7 +38,7 @@ def test_a_v1_log_is_migrated_keeping_every_row(tmp_path):
     path = tmp_path / "jobs.sqlite3"
     rows = _v1_log(path, jobs=25)
     with JobLog.open(path) as log:
-        assert user_version(log.conn) == schema.LATEST_VERSION == 5
+        assert user_version(log.conn) == schema.LATEST_VERSION == 6
         records = sorted(log.search(limit=100), key=lambda r: r.id)
         assert len(records) == 25
         for record, row in zip(records, rows):
@@ -162,10 +162,10 @@ def test_a_v3_log_gains_outcomes_and_wider_search_keeping_every_row(tmp_path):
     assert (tmp_path / "jobs.sqlite3.v3.bak").exists()
 
 
-@pytest.mark.parametrize("version", [1, 2, 3, 5])
+@pytest.mark.parametrize("version", [1, 2, 3, 6])
 def test_a_log_of_ours_with_its_version_number_lost_is_recognised(tmp_path, version):
     path = tmp_path / "jobs.sqlite3"
-    if version == 5:
+    if version == 6:
         with JobLog.open(path) as log:
             for _ in range(5):
                 log.save(dict(JOB_INPUTS["demo"]), result_for("demo"), asset="kept")
@@ -180,3 +180,23 @@ def test_a_log_of_ours_with_its_version_number_lost_is_recognised(tmp_path, vers
         assert user_version(log.conn) == schema.LATEST_VERSION
         assert log.count(deleted=None) == 5
         assert log.integrity_ok()
+
+
+def test_a_v5_log_gets_asset_keys(tmp_path):
+    from workbench.store import payload
+
+    path = tmp_path / "jobs.sqlite3"
+    conn = sqlite3.connect(path, isolation_level=None)
+    migrate(conn, target=5)
+    assert user_version(conn) == 5
+    blob = payload.encode(JOB_INPUTS["demo"], result_for("demo"))
+    for n, asset in enumerate(["CV-07 head drive", "cv 7", "Fan F-2", ""]):
+        conn.execute("INSERT INTO jobs (uid, created_at, asset, payload, note) VALUES (?, ?, ?, ?, ?)",
+                     (bytes([n]) * 16, f"2025-01-0{n + 1}T00:00:00.000000+00:00", asset, blob, f"n{n}"))
+    conn.close()
+    with JobLog.open(path) as log:
+        assert user_version(log.conn) == schema.LATEST_VERSION
+        keys = dict(log.conn.execute("SELECT note, asset_key FROM jobs").fetchall())
+        assert keys == {"n0": "cv7", "n1": "cv7", "n2": "fan", "n3": ""}
+        assert log.count(deleted=None) == 4
+    assert (tmp_path / "jobs.sqlite3.v5.bak").exists()

@@ -199,7 +199,13 @@ async def test_help_shows_keys_methods_and_cautions(make_app):
         for caution in app.job_screen.result["cautions"]:
             assert caution in text
         assert "fatigue" in text
-        assert "F4 stock finder" in _text(app.screen.query_one("#help-keys", Static))
+        keys = _text(app.screen.query_one("#help-keys", Static))
+        assert "F4" in keys and "stock finder" in keys
+        for key in ("Ctrl+N", "Ctrl+Z", "Ctrl+L", "F8"):  # the workbench's own keys are all listed
+            assert key in keys
+        lines = [line for line in keys.splitlines() if line.strip()]
+        # a long line wraps under its own text, never back to the left edge (80 columns too)
+        assert all(line.startswith(("  ", "Keys", "Typing", "What")) for line in lines)
 
 
 async def test_save_asks_for_asset_then_writes_the_log(make_app, tmp_path):

@@ -135,8 +135,29 @@ async def test_a_core_failure_is_said_on_its_field(make_app):
         await settle(pilot)
         assert app.is_running
         error = plain_text(app.job_screen.query_one("#error-shaft_size", Static))
-        assert "shaft" in error and "material" in error
+        assert "shaft" in error and "double-d" in error and "half the diameter" in error
         assert app.job_screen.result is None
+
+
+def test_an_unforeseen_core_error_is_put_on_the_field_it_comes_from(monkeypatch):
+    """Any exception of the core (not only JobInputError) comes back as a field message: the field
+    is found by giving each likely field its stand-in until the job computes."""
+    import workbench.job as job
+    from workbench.tui import engine
+
+    real = job.evaluate_inputs
+
+    def failing(inputs, **kwargs):
+        if inputs.get("candidate") == "square 41mm":
+            raise ValueError("a case the core never met")
+        return real(inputs, **kwargs)
+
+    monkeypatch.setattr(job, "evaluate_inputs", failing)
+    evaluation = engine.evaluate({"power": "7.5 kW", "speed": "1450 rpm", "shaft": "round 40mm",
+                                  "candidate": "square 41mm"})
+    assert evaluation.result is None
+    assert set(evaluation.errors) == {"candidate"}
+    assert "a case the core never met" in evaluation.errors["candidate"]
 
 
 async def test_save_failure_naming_a_markup_path_is_shown_as_written(make_app, tmp_path):
@@ -265,3 +286,120 @@ async def test_inch_display_reads_bare_lengths_as_inches_and_keeps_the_unit(make
         await _type(pilot, "pitch_diameter", "200")  # metric again: bare = mm
         await settle(pilot)
         assert app.job_screen.result["mount"]["pitch_diameter_m"] == 0.2
+
+
+async def test_stock_finder_names_the_governing_check_of_each_row(make_app):
+    """A MARGINAL row says why (the CLI's `stock` does the same): the governing check per row."""
+    from textual.widgets import DataTable
+
+    from workbench.tui.screens.stock import StockScreen
+
+    app = make_app(demo=True)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        await pilot.press("f4")
+        await settle(pilot)
+        assert isinstance(app.screen, StockScreen)
+        table = app.screen.query_one(DataTable)
+        labels = [str(c.label) for c in table.columns.values()]
+        assert "governed by" in labels
+        column = labels.index("governed by")
+        for index, row in enumerate(app.screen.rows):
+            cell = str(table.get_row_at(index)[column])
+            assert cell == row["governing"] and cell not in ("", "—")
+
+
+async def test_material_pick_list_searches_and_takes_a_key(make_app):
+    from workbench.tui.screens.materials import MaterialPicker
+
+    app = make_app(demo=True)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        app.job_screen.query_one("#candidate_material").focus()
+        await pilot.press("ctrl+l")
+        await settle(pilot)
+        assert isinstance(app.screen, MaterialPicker)
+        await pilot.press(*"en19")
+        await settle(pilot)
+        assert [row["key"] for row in app.screen.rows] == ["42crmo4-qt"]  # EN19 is read as it
+        await pilot.press("enter")
+        await settle(pilot)
+        assert app.job_screen.sheet.value("candidate_material") == "42crmo4-qt"
+        result = app.job_screen.result
+        assert result["shafts"][1]["material"].startswith("42crmo4-qt-")  # the row for the bar size
+
+
+async def test_the_focused_fields_hint_is_in_the_title_line_at_80_columns(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        title = app.job_screen.query_one("#title-bar", Static)
+        assert "Power: kW, hp · bare = kW" in plain_text(title)
+        await pilot.press("enter", "enter")
+        await settle(pilot)
+        assert "Ratio: motor ÷ shaft speed" in plain_text(title)
+        ratio = app.job_screen.query_one("#ratio", Input)
+        assert ratio.value == "" and ratio.placeholder.startswith("default")  # a default, not a value
+
+
+async def test_the_footer_shows_only_whole_keys_at_80_columns(make_app):
+    """At 80 columns the footer's last entry used to be cut ('^p pal e tte P')."""
+    from textual.widgets._footer import FooterKey
+
+    from workbench.tui.widgets.fitting_footer import FittingFooter, key_width
+
+    app = make_app(demo=True)
+    for width, must_show in ((80, "f7"), (120, "^n")):
+        async with app.run_test(size=(width, 24)) as pilot:
+            await settle(pilot, rounds=1)
+            footer = app.job_screen.query_one(FittingFooter)
+            keys = list(footer.query(FooterKey))
+            assert sum(key_width(k, True) for k in keys) - 1 <= width
+            assert must_show in [k.key_display for k in keys]
+            assert "f8" in [k.key_display for k in keys]  # the key that pages the verdict panel
+        app = make_app(demo=True)
+
+
+async def test_verdict_word_why_and_stale_mark_are_on_screen_at_80x24(make_app):
+    app = make_app(demo=True)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        await _type(pilot, "power", "7.5 kV")
+        await settle(pilot)
+        panel = app.job_screen.panel
+        screen_region = app.screen.region
+        for wid in ("#verdict-banner", "#verdict-status", "#verdict-why"):
+            widget = panel.query_one(wid)
+            assert widget.region.y < screen_region.height - 1, wid  # starts above the footer
+        assert "NOT CURRENT" in plain_text(panel.query_one("#verdict-banner", Static))
+        assert "fix: power" in plain_text(panel.query_one("#verdict-status", Static))
+        before = panel.scroll_y
+        await pilot.press("f8")
+        await pilot.pause(0.2)
+        assert panel.scroll_y > before  # F8 pages on through the panel
+
+
+async def test_below_a_usable_size_the_screen_says_so(make_app):
+    app = make_app(demo=True)
+    async with app.run_test(size=(40, 12)) as pilot:
+        await settle(pilot, rounds=1)
+        note = app.job_screen.query_one("#too-small", Static)
+        assert note.display and "40×12" in plain_text(note)
+        assert not app.job_screen.query_one("#job-body").display or app.job_screen.has_class("-too-small")
+
+
+async def test_panel_says_the_material_size_note_and_the_ratios_the_cli_report_says(make_app):
+    """The CLI report's 'candidate / existing: strength …x, stiffness …x, mass …x' and the material
+    size-range note are in the workbench too (figures from the same result dict)."""
+    app = make_app(demo=True)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        result = app.job_screen.result
+        why = plain_text(app.job_screen.panel.query_one("#verdict-why", Static))
+        comparison = result["comparison"]
+        assert f"strength {comparison['strength_ratio']:.2f}×" in why
+        assert f"stiffness {comparison['stiffness_ratio']:.2f}×" in why
+        assert f"mass {comparison['mass_ratio']:.2f}×" in why
+        note = result["shafts"][1]["notes"][0]
+        assert "tabled strengths hold for" in note
+        assert "tabled strengths hold for" in " ".join(why.split())

@@ -26,14 +26,35 @@ async def test_f10_shows_the_candidates_turning_sheet_and_cycles(make_app):
         assert isinstance(app.screen, TurningScreen)
         text = plain_text(app.screen.query_one("#turning-body", Static))
         assert "Turning sheet — candidate" in text and "40.002-40.018" in text  # 40 k6
-        await pilot.press("b")
+        await pilot.press("ctrl+b")
         text = plain_text(app.screen.query_one("#turning-body", Static))
         assert "Turning sheet — existing" in text and "keyseat" in text and "N9" in text
-        await pilot.press("b")
+        await pilot.press("ctrl+b")
         text = plain_text(app.screen.query_one("#turning-body", Static))
         assert "candidate" in text and "existing" in text
         await pilot.press("escape")
         assert not isinstance(app.screen, TurningScreen)
+
+
+async def test_turning_view_takes_the_bearing_and_key_fit(make_app):
+    app = make_app(demo=True)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        await pilot.press("f10")
+        await settle(pilot)
+        app.screen.query_one("#turning-bearing", Input).value = "6208"
+        app.screen.query_one("#turning-key_fit", Input).value = "tight"
+        app.screen.query_one("#turning-bearing", Input).focus()
+        await pilot.press("enter")
+        await settle(pilot)
+        await pilot.press("ctrl+b")
+        text = plain_text(app.screen.query_one("#turning-body", Static))
+        assert "bearing 6208" in text and "P9" in text and "18 mm" in text  # 6208 is 18 mm wide
+        app.screen.query_one("#turning-bearing", Input).value = "9999x"
+        await pilot.press("enter")
+        await settle(pilot)
+        text = plain_text(app.screen.query_one("#turning-body", Static))
+        assert "✗" in text and "bearing" in text and "bearing 6208" in text  # the last good sheet stays
 
 
 async def test_f10_without_a_result_says_so(make_app):

@@ -75,3 +75,74 @@ async def test_save_dialog_typed_ahead_keeps_each_field_apart(make_app, tmp_path
         (record,) = log.search(limit=5)
     assert (record.asset, record.location, record.by, record.note) == (
         "CV-07", "Line 3 west", "Ann", "new bar fitted")
+
+
+def _backspaces(app, count: int) -> None:
+    for _ in range(count):
+        event = events.Key("backspace", None)
+        event.set_sender(app)
+        app._driver.send_message(event)
+
+
+async def test_backspace_and_cursor_keys_typed_ahead_keep_their_place(make_app):
+    """Backspace is a binding of the field: it used to run after the letters typed behind it."""
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        burst(app, "7.55")
+        _backspaces(app, 2)
+        burst(app, "5 kW⏎1450⏎")
+        await settle(pilot)
+        sheet = app.job_screen.sheet
+        assert (sheet.value("power"), sheet.value("speed")) == ("7.5 kW", "1450")
+
+
+async def test_log_filter_typed_ahead_with_fast_backspaces(make_app, tmp_path):
+    from workbench.tui.screens.review import ReviewScreen
+
+    app = make_app(demo=True)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        await pilot.press("f7")
+        await settle(pilot)
+        assert isinstance(app.screen, ReviewScreen)
+        burst(app, "conveyor")
+        _backspaces(app, 4)
+        burst(app, "ab cd")
+        await settle(pilot)
+        assert app.screen.query_one("#review-text").value == "convab cd"
+        assert isinstance(app.screen, ReviewScreen)  # no letter ran a key of the log (b, c, d…)
+
+
+async def test_keys_typed_right_after_f6_land_in_the_save_dialog(make_app, tmp_path):
+    app = make_app(demo=True)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        app.meta = {}
+        app.job_screen.query_one("#power").focus()
+        burst(app, "")
+        event = events.Key("f6", None)
+        event.set_sender(app)
+        app._driver.send_message(event)
+        burst(app, "CV-09⏎Bay 2⏎")
+        await settle(pilot)
+        screen = app.screen
+        assert screen.query_one("#save-asset").value == "CV-09"
+        assert screen.query_one("#save-location").value == "Bay 2"
+        assert app.job_screen.sheet.value("power") == "7.5 kW"  # nothing leaked into the sheet
+
+
+async def test_pagedown_typed_ahead_moves_before_the_next_keys(make_app):
+    app = make_app()
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        burst(app, "7.5⏎1450⏎3⏎")
+        event = events.Key("pagedown", None)
+        event.set_sender(app)
+        app._driver.send_message(event)
+        burst(app, "v⇥200⇥60")
+        await settle(pilot)
+        sheet = app.job_screen.sheet
+        assert (sheet.value("ratio"), sheet.value("efficiency")) == ("3", "")
+        assert (sheet.value("mount"), sheet.value("pitch_diameter"), sheet.value("overhang")) == (
+            "vbelt", "200", "60")

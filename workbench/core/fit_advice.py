@@ -15,7 +15,7 @@ from __future__ import annotations
 import functools
 from dataclasses import dataclass
 
-from workbench.core.fits import fit_kind
+from workbench.core.fits import clearances
 from workbench.core.iso286 import limits
 
 MOUNTINGS = ("pressed", "adapter-sleeve", "insert")
@@ -95,10 +95,9 @@ def bearing_fit(bore_m: float, bore_upper_m: float, bore_lower_m: float, shaft_c
     """The fit of a shaft class on a bearing bore with its own limits (ISO 492): clearances [m]
     (negative = interference) and the kind."""
     shaft = limits(bore_m, shaft_cls)
-    max_c = round(bore_upper_m - shaft.lower_deviation_m, 12)
-    min_c = round(bore_lower_m - shaft.upper_deviation_m, 12)
+    max_c, min_c, kind = clearances(bore_upper_m, bore_lower_m, shaft.upper_deviation_m, shaft.lower_deviation_m)
     return {"bore_max_m": bore_m + bore_upper_m, "bore_min_m": bore_m + bore_lower_m,
-            "max_clearance_m": max_c, "min_clearance_m": min_c, "kind": fit_kind(max_c, min_c),
+            "max_clearance_m": max_c, "min_clearance_m": min_c, "kind": kind,
             "basis": "bearing bore ISO 492 Normal class"}
 
 

@@ -36,11 +36,12 @@ def fit_kind(max_clearance_m: float, min_clearance_m: float) -> str:
     return "transition"
 
 
-def fit_of_zones(hole_max_m: float, hole_min_m: float, shaft_max_m: float, shaft_min_m: float) -> tuple[float, float, str]:
-    """(max clearance, min clearance, kind) of a bore between two limits and a shaft between two
-    limits [m] -- also for a bore that is not an ISO class (a bearing bore, a measured hub)."""
-    max_c = hole_max_m - shaft_min_m
-    min_c = hole_min_m - shaft_max_m
+def clearances(hole_upper_m: float, hole_lower_m: float, shaft_upper_m: float, shaft_lower_m: float) -> tuple[float, float, str]:
+    """(max clearance, min clearance, kind) from the deviations of a bore and a shaft at one
+    nominal size [m] -- also for a bore that is not an ISO class (a bearing bore): max = ES - ei,
+    min = EI - es (deviations, so no round-off from the size itself)."""
+    max_c = round(hole_upper_m - shaft_lower_m, 12)
+    min_c = round(hole_lower_m - shaft_upper_m, 12)
     return max_c, min_c, fit_kind(max_c, min_c)
 
 
@@ -62,7 +63,6 @@ def fit(size_m: float, text: str) -> Fit:
         raise ToleranceError(f"{hole.name} is a shaft class; a fit is written HOLE/SHAFT (upper-case hole), e.g. H7/k6")
     if shaft.is_hole:
         raise ToleranceError(f"{shaft.name} is a hole class; a fit is written HOLE/SHAFT (lower-case shaft), e.g. H7/k6")
-    max_c = round(hole.upper_deviation_m - shaft.lower_deviation_m, 12)  # deviations: no size round-off
-    min_c = round(hole.lower_deviation_m - shaft.upper_deviation_m, 12)
-    kind = fit_kind(max_c, min_c)
+    max_c, min_c, kind = clearances(hole.upper_deviation_m, hole.lower_deviation_m,
+                                    shaft.upper_deviation_m, shaft.lower_deviation_m)
     return Fit(hole, shaft, max_c, min_c, kind)

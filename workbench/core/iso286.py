@@ -173,10 +173,15 @@ def tolerance_unit_um(d_mm: float) -> float:
 def computed_tolerance_um(grade: int, low_mm: float, high_mm: float) -> float:
     """IT value of ``grade`` for the main range (low, high] by the ISO 286-1 rules, rounded [um].
 
-    IT5-IT18: multiplier x i (i on the range's geometric mean). IT1 = 0.8 + 0.020 D; IT2, IT3, IT4
-    lie in geometric progression between IT1 and IT5 (ISO 286-1, clause on grades IT1 to IT4).
+    IT5-IT10: multiplier x i (i on the range's geometric mean). IT11-IT18 follow the R5 series of
+    preferred numbers the multipliers come from: ten times the grade five finer (IT11 = 10 x IT6,
+    the multipliers 100 = 10 x 10; so the table's rounding carries over). IT1 = 0.8 + 0.020 D; IT2,
+    IT3, IT4 lie in geometric progression between IT1 and IT5 (ISO 286-1, clause on grades IT1 to
+    IT4).
     """
     d = _mean_mm(low_mm, high_mm)
+    if grade >= 11:  # R5 progression: each five grades coarser is ten times wider (IT11 = 10 x IT6)
+        return 10.0 * _tolerance_in_range_um(grade - 5, low_mm, high_mm)
     if grade >= 5:
         return _round_it(GRADE_MULTIPLIERS[grade] * tolerance_unit_um(d))
     it1 = 0.8 + 0.020 * d

@@ -145,13 +145,14 @@ def place(layout: Layout, journal_length_m: float) -> Placed:
         raise LayoutError("hub_length", f"{hub * 1000:g} mm is not shorter than the bearing span {span * 1000:g} mm")
     b2 = None if span is None else b1 + span
     if hub is None:
-        notes.append("no hub length: the hub seat is checked at the bearing-centre moment (conservative)")
+        notes.append("--hub-length: none given, the hub seat is checked at the bearing-centre moment "
+                     "(conservative) and the key's safety factors are not computed")
         seat_check = (seat[0], b1) if layout.position == "overhung" else seat
     else:
         seat_check = seat
     if span is None:
-        notes.append("no bearing span: moments past bearing 1 are held at their largest value (conservative); "
-                     "deflection, slopes and critical speed not computed")
+        notes.append("--bearing-span: none given, moments past bearing 1 are held at their largest value "
+                     "(conservative); deflection, slopes and critical speed not computed")
     driven_x = None
     if layout.driven is not None:
         if b2 is None:

@@ -114,7 +114,8 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
     kind = bearing_type or DEFAULT_BEARING_TYPE
     notes = []
     if bearing_type is None:
-        notes.append(f"no bearing type: slope limit of a {kind} bearing taken ({slope_limit_rad(kind):g} rad)")
+        notes.append(f"--bearing-type: none given, the slope limit of a {kind} bearing is taken "
+                     f"({slope_limit_rad(kind):g} rad)")
     rayleigh = dunkerley = governing = None
     try:
         critical = _critical(tuple(segments), (b1, b2), tuple((x, m) for x, m in masses if m > 0))

@@ -23,6 +23,7 @@ from typing import Mapping, Sequence
 
 from workbench.core import fit_advice
 from workbench.core.bearings import Bearing
+from workbench.core.fits import fit
 from workbench.core.iso286 import limits
 
 BODY_CLASS = "h11"
@@ -123,14 +124,9 @@ def turning_sheet(steps: Sequence[Mapping], options: TurningOptions, *, key: Map
             row = _row(step, cls, reason, source)
             if row["length_m"] is None and options.hub_length_m:
                 row["length_m"] = options.hub_length_m
-            hole = limits(d, "H7")
-            shaft = limits(d, row["class"])
-            from workbench.core.fits import fit_kind
-
-            max_c = round(hole.upper_deviation_m - shaft.lower_deviation_m, 12)
-            min_c = round(hole.lower_deviation_m - shaft.upper_deviation_m, 12)
-            row["fit"] = {"hub_class": "H7", "max_clearance_m": max_c, "min_clearance_m": min_c,
-                          "kind": fit_kind(max_c, min_c), "basis": "hub bored H7 (ISO 286)"}
+            hub = fit(d, f"H7/{row['class']}")
+            row["fit"] = {"hub_class": "H7", "max_clearance_m": hub.max_clearance_m,
+                          "min_clearance_m": hub.min_clearance_m, "kind": hub.kind, "basis": "hub bored H7 (ISO 286)"}
         else:
             row = _row(step, BODY_CLASS, "free size: turned to clean up or left as drawn bar", "common practice (P)")
             if kind == "shoulder":

@@ -79,6 +79,11 @@ def _shafts_table(result: dict, system: str) -> Table:
     return table
 
 
+def _across(spec: str) -> str:
+    """A hex spec shown with "across flats" (its size is measured across the flats)."""
+    return f"{spec} (across flats)" if spec.lower().startswith("hex ") and "across" not in spec else spec
+
+
 def spec_label(shaft: dict) -> str:
     """A shaft's spec as shown: a hex size is said to be across flats."""
     spec = shaft["spec"]
@@ -194,7 +199,7 @@ def render_substitution(result: dict, system: str = "metric") -> Group:
         table.add_column(name)
     for row in result["equivalents"]:
         table.add_row(
-            row["profile"], row["basis"], Text(row["label"]), Text(row.get("next_stock") or "—"),
+            row["profile"], row["basis"], Text(_across(row["label"])), Text(_across(row.get("next_stock") or "—")),
             f"{row['strength_ratio']:.2f}", f"{row['stiffness_ratio']:.2f}", f"{row['mass_ratio']:.2f}",
         )
     facts = Text("\n".join(f"- {fact}" for fact in result["fit_facts"]))
@@ -203,7 +208,8 @@ def render_substitution(result: dict, system: str = "metric") -> Group:
 
 def render_stock(result: dict, system: str = "metric") -> Group:
     """Stock sizes checked as the candidate, smallest first, with the smallest that passes."""
-    table = Table(title=Text(f"{result['profile']} stock, {result['system']}"))
+    across = " (sizes across flats)" if result["profile"] == "hex" else ""
+    table = Table(title=Text(f"{result['profile']} stock, {result['system']}{across}"))
     for name in ("size", "material", "verdict", "lowest SF", "governing", "mass", "journal"):
         table.add_column(name)
     for row in result["rows"]:
@@ -219,7 +225,7 @@ def render_stock(result: dict, system: str = "metric") -> Group:
     lines = Text()
     for key, best in result["smallest"].items():
         lines.append(f"smallest that passes in {key}: ")
-        lines.append(best["spec"], style="bold")
+        lines.append(_across(best["spec"]), style="bold")
         lines.append("\n")
     for key, best in result.get("smallest_with_existing_journal", {}).items():
         if best is not result["smallest"].get(key) and best["spec"] != result["smallest"].get(key, {}).get("spec"):

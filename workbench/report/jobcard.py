@@ -142,7 +142,7 @@ def _word(verdict: Any) -> str:
 
 
 SHAFT_ROWS: list[tuple[str, Callable[[Mapping[str, Any]], str]]] = [
-    ("spec", lambda s: str(s.get("spec", ""))),
+    ("spec", lambda s: str(s.get("spec", "")) + (" (across flats)" if s.get("profile") == "hex" else "")),
     ("material", lambda s: str(s.get("material_name") or s.get("material") or "")),
     ("max shear (torsion)", lambda s: number(s.get("max_shear_stress_Pa"), 1e6, "MPa")),
     ("bending stress", lambda s: number(s.get("bending_stress_Pa"), 1e6, "MPa")),

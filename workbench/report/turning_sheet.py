@@ -5,7 +5,7 @@ per shaft, and plain rows for the workbench view. Reads the result dict only (``
 
 from __future__ import annotations
 
-from typing import Any, Mapping, Sequence
+from typing import Any, Mapping
 
 HEADINGS = ("step", "size", "limits mm / in", "length", "fillet r", "Ra um")
 M_PER_IN = 0.0254

@@ -12,13 +12,13 @@ it was.
 from __future__ import annotations
 
 import os
-import uuid
 from collections.abc import Iterable, Iterator, Mapping
 from contextlib import AbstractContextManager
 from datetime import date, datetime
 from pathlib import Path
 from typing import Any
 
+from workbench.core.asset_history import tag_key
 from workbench.store import schema
 from workbench.store.compare import compare_results
 from workbench.store.paths import default_log_path, log_target
@@ -127,7 +127,7 @@ class JobLog:
         """Insert one job row (INSERT_COLUMNS) inside ``_write``; returns its id."""
         raise NotImplementedError
 
-    def _uid_param(self, uid: uuid.UUID) -> Any:
+    def _uid_param(self, uid: Any) -> Any:
         """A uid as this engine stores it."""
         raise NotImplementedError
 
@@ -167,7 +167,7 @@ class JobLog:
         fitted_on: str = "",
         outcome: str = "",
         outcome_date: str = "",
-        uid: str | uuid.UUID | None = None,
+        uid: str | Any | None = None,
         bench: str | None = None,
     ) -> int:
         """Store one job durably; returns its id. ``inputs`` are kept exactly as typed.
@@ -203,8 +203,8 @@ class JobLog:
         with self._write() as conn:
             conn.execute(
                 "UPDATE jobs SET asset = ?, location = ?, by = ?, note = ?, fitted = ?, fitted_on = ?, "
-                "outcome = ?, outcome_date = ?, search_text = ?, updated_at = ? WHERE id = ?",
-                (*(values[name] for name in EDITABLE_FIELDS), search, now, job_id),
+                "outcome = ?, outcome_date = ?, search_text = ?, updated_at = ?, asset_key = ? WHERE id = ?",
+                (*(values[name] for name in EDITABLE_FIELDS), search, now, tag_key(values["asset"]), job_id),
             )
             for name in changed:
                 conn.execute(

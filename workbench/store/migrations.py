@@ -65,10 +65,28 @@ def _create_latest(conn: sqlite3.Connection) -> None:
     conn.execute(schema.table_ddl("sqlite", "jobs"))
     conn.execute(schema.table_ddl("sqlite", "job_changes"))
     conn.execute("CREATE INDEX job_changes_job ON job_changes(job_id, id)")
-    for statement in (*schema.SQLITE_V5_INDEXES, *schema.SQLITE_COUNTS):
+    for statement in (*schema.SQLITE_V5_INDEXES, *schema.SQLITE_COUNTS, schema.ASSET_INDEX):
         conn.execute(statement)
     if text_index_supported():
         build_text_index(conn)
+
+
+def fill_asset_keys(conn: object) -> None:
+    """Set every job's asset_key from its asset text (the v5 -> v6 step of either engine; ``conn``
+    runs neutral SQL with ``?`` parameters)."""
+    from workbench.core.asset_history import tag_key
+
+    rows = conn.execute("SELECT id, asset FROM jobs WHERE asset <> ''", ()).fetchall()
+    for job_id, asset in rows:
+        key = tag_key(asset)
+        if key:
+            conn.execute("UPDATE jobs SET asset_key = ? WHERE id = ?", (key, job_id))
+
+
+def _v5_to_v6(conn: sqlite3.Connection) -> None:
+    conn.execute("ALTER TABLE jobs ADD COLUMN asset_key TEXT NOT NULL DEFAULT ''")
+    fill_asset_keys(conn)
+    conn.execute(schema.ASSET_INDEX)
 
 
 def _v4_to_v5(conn: sqlite3.Connection) -> None:
@@ -88,7 +106,7 @@ def _v4_to_v5(conn: sqlite3.Connection) -> None:
     for trigger in schema.TEXT_TRIGGERS:
         conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
     conn.execute(f"DROP TABLE IF EXISTS {schema.TEXT_INDEX}")
-    conn.execute(schema.table_ddl("sqlite", "jobs", "jobs_v5"))
+    conn.execute(schema.table_ddl("sqlite", "jobs", "jobs_v5", version=5))
     columns = [c for c, _ in schema.JOBS_V5]
     insert = f"INSERT INTO jobs_v5 ({', '.join(columns)}) VALUES ({', '.join('?' * len(columns))})"
     seen: set[bytes] = set()
@@ -127,7 +145,7 @@ def _v4_to_v5(conn: sqlite3.Connection) -> None:
 
 
 STEPS: dict[int, Callable[[sqlite3.Connection], None]] = {
-    1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3, 4: _v3_to_v4, 5: _v4_to_v5,
+    1: _create_v1, 2: _v1_to_v2, 3: _v2_to_v3, 4: _v3_to_v4, 5: _v4_to_v5, 6: _v5_to_v6,
 }
 """STEPS[n] brings a log from version n - 1 to version n."""
 
@@ -144,7 +162,7 @@ def version_from_tables(conn: sqlite3.Connection) -> int | None:
     columns = {row[1] for row in conn.execute("PRAGMA table_info(jobs)")}
     tables = {row[0] for row in conn.execute("SELECT name FROM sqlite_master WHERE type = 'table'")}
     if {"id", "uid", "payload", "bench"} <= columns and "job_changes" in tables:
-        return 5
+        return 6 if "asset_key" in columns else 5
     if not {"id", "created_at", "inputs_json", "result_json"} <= columns:
         return None
     if {"fitted_on", "outcome", "outcome_date"} <= columns and "job_changes" in tables:

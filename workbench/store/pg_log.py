@@ -16,10 +16,10 @@ them; messages name the log by its URL with any password removed, never echoed.
   save is REFUSED with nothing half-written: PostgreSQL rolls back a transaction whose COMMIT did
   not arrive, and if the COMMIT arrived but its answer was lost, saving again stores nothing twice
   (same uid). The message says the job was not saved and to save again.
-- Text filters: ``search_text LIKE '%word%'`` for every word, served by a pg_trgm GIN index for
-  words of three characters or more (pg_trgm extracts no trigram from a shorter word, so a filter of
-  only 1-2 character words reads the rows in time order and stops when the page is full; its count
-  reads them all).
+- Text filters: every word must be in ``search_text``: ``LIKE '%word%'`` served by a pg_trgm GIN
+  index for words of three characters or more; a shorter word (pg_trgm extracts no trigram from it)
+  is tested with ``strpos`` on the rows the other words found, or on every row when no word is long
+  enough (its count then reads every job).
 """
 
 from __future__ import annotations
@@ -46,8 +46,8 @@ LOCK_KEY = 0x53424A4C  # advisory lock held while creating or migrating ("SBJL")
 V5 = (
     "CREATE EXTENSION IF NOT EXISTS pg_trgm",
     f"CREATE TABLE {META_TABLE} (key TEXT PRIMARY KEY, value TEXT NOT NULL)",
-    schema.table_ddl("postgresql", "jobs"),
-    schema.table_ddl("postgresql", "job_changes"),
+    schema.table_ddl("postgresql", "jobs", version=5),
+    schema.table_ddl("postgresql", "job_changes", version=5),
     "CREATE INDEX job_changes_job ON job_changes (job_id, id)",
     "CREATE UNIQUE INDEX jobs_uid ON jobs (uid)",
     "CREATE INDEX jobs_listing ON jobs (deleted_at, created_at, id)",
@@ -64,7 +64,15 @@ def _create_v5(conn: Any) -> None:
     conn.execute(f"INSERT INTO {META_TABLE} (key, value) VALUES ('schema_version', '5')")
 
 
-STEPS = {5: _create_v5}
+def _v5_to_v6(conn: Any) -> None:
+    from workbench.store.migrations import fill_asset_keys
+
+    conn.execute("ALTER TABLE jobs ADD COLUMN asset_key TEXT NOT NULL DEFAULT ''")
+    fill_asset_keys(_Writer(conn))
+    conn.execute(schema.ASSET_INDEX)
+
+
+STEPS = {5: _create_v5, 6: _v5_to_v6}
 
 
 def shown_url(url: str) -> str:
@@ -247,8 +255,14 @@ class PgJobLog(JobLog):
     def _text_clauses(self, text: str, clauses: list[str], params: list[Any]) -> tuple[str, list[Any]]:
         clauses, params = list(clauses), list(params)
         for word in filter_words(text):
-            clauses.append("search_text LIKE ?")  # backslash is PostgreSQL's LIKE escape too
-            params.append(like_pattern(word))
+            if len(word) >= schema.TEXT_INDEX_MIN_CHARS:
+                clauses.append("search_text LIKE ?")  # the trigram index; backslash escapes, as in SQLite
+                params.append(like_pattern(word))
+            else:
+                # pg_trgm takes no trigram from a 1-2 character word and would read its whole index:
+                # strpos (the same test: the word is in the text) keeps such a word off the index
+                clauses.append("strpos(search_text, ?) > 0")
+                params.append(word)
         return (" WHERE " + " AND ".join(clauses) if clauses else ""), params
 
     def _page_ids(
@@ -284,7 +298,7 @@ class PgJobLog(JobLog):
                     for row in rows:
                         copy.write_row(row)
                         count += 1
-            self.conn.execute("ANALYZE jobs")
+            self.conn.execute("VACUUM (ANALYZE) jobs")  # as autovacuum would: index-only counts
         except psycopg.Error as err:
             raise friendly(err, self._url) from None
         return count

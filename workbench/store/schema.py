@@ -7,7 +7,7 @@ that another program's SQLite file is never taken for a job log.
 from __future__ import annotations
 
 APPLICATION_ID = 0x53424A4C  # "SBJL": Shaftbench job log
-LATEST_VERSION = 5
+LATEST_VERSION = 6
 
 # Version 1: one row per job; inputs and result as JSON text.
 V1 = (
@@ -142,6 +142,13 @@ JOB_CHANGES_V5 = (
     ("new_value", "text"),
 )
 TABLES_V5 = {"jobs": JOBS_V5, "job_changes": JOB_CHANGES_V5}
+
+# Version 6: the asset's tag key (workbench/core/asset_history.tag_key: case, spaces, separators
+# and leading zeros ignored) in its own column with an index, so that an asset's history is found
+# by index instead of by reading every job's asset text.
+JOBS_V6 = (*JOBS_V5, ("asset_key", "text"))
+TABLES = {5: TABLES_V5, 6: {"jobs": JOBS_V6, "job_changes": JOB_CHANGES_V5}}
+ASSET_INDEX = "CREATE INDEX jobs_asset ON jobs(asset_key) WHERE asset_key <> ''"
 KINDS = {
     "sqlite": {
         "id": "INTEGER PRIMARY KEY AUTOINCREMENT", "ref": "INTEGER NOT NULL", "uid": "BLOB NOT NULL",
@@ -155,11 +162,11 @@ KINDS = {
 }
 
 
-def table_ddl(engine: str, table: str, name: str | None = None) -> str:
-    """CREATE TABLE for a v5 table (``jobs`` or ``job_changes``) on ``engine`` ("sqlite" or
-    "postgresql"), named ``name`` (default: the table's own name)."""
+def table_ddl(engine: str, table: str, name: str | None = None, version: int = LATEST_VERSION) -> str:
+    """CREATE TABLE for a table (``jobs`` or ``job_changes``) as of ``version`` (5 or later) on
+    ``engine`` ("sqlite" or "postgresql"), named ``name`` (default: the table's own name)."""
     kinds = KINDS[engine]
-    body = ",\n    ".join(f"{column} {kinds[kind]}" for column, kind in TABLES_V5[table])
+    body = ",\n    ".join(f"{column} {kinds[kind]}" for column, kind in TABLES[version][table])
     return f"CREATE TABLE {name or table} (\n    {body}\n)"
 
 
@@ -202,7 +209,7 @@ JOB_COLUMNS = (
 )
 """Columns of a job row at the latest version, in the order JobRecord is built from."""
 COLUMN_ADDED_IN = {"fitted": 2, "deleted_at": 2, "fitted_on": 4, "outcome": 4, "outcome_date": 4,
-                   "payload": 5, "uid": 5, "bench": 5, "origin": 5}
+                   "payload": 5, "uid": 5, "bench": 5, "origin": 5, "asset_key": 6}
 """The version that added each column after version 1 (a read-only older log is read without them)."""
 
 

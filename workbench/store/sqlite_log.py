@@ -11,7 +11,6 @@ from __future__ import annotations
 import os
 import sqlite3
 import time
-import uuid
 from collections.abc import Iterable, Iterator
 from contextlib import contextmanager
 from pathlib import Path
@@ -271,7 +270,7 @@ class SqliteJobLog(TrigramSearch, JobLog):
     def _insert(self, conn: sqlite3.Connection, row: tuple[Any, ...]) -> int:
         return int(conn.execute(INSERT, (row[0].bytes, *row[1:])).lastrowid)
 
-    def _uid_param(self, uid: uuid.UUID) -> bytes:
+    def _uid_param(self, uid: Any) -> bytes:
         return uid.bytes
 
     def _stream(self, sql: str) -> Iterator[tuple[Any, ...]]:

@@ -5,11 +5,11 @@ from __future__ import annotations
 
 import json
 import os
-import uuid
 from collections.abc import Mapping
 from datetime import date, datetime, timedelta, timezone
 from typing import Any
 
+from workbench.core.asset_history import tag_key
 from workbench.store import payload
 from workbench.store.payload import payload_json
 from workbench.store.records import META_FIELDS, OUTCOMES, DamagedRow, JobRecord, LogError
@@ -164,14 +164,15 @@ def material_of(inputs: Mapping[str, str], result: Mapping[str, Any]) -> str:
 INSERT_COLUMNS = (
     "uid", "created_at", "updated_at", "program_version", "bench", "origin", "asset", "location",
     "by", "note", "verdict", "material", "fitted", "deleted_at", "payload", "search_text",
-    "fitted_on", "outcome", "outcome_date",
+    "fitted_on", "outcome", "outcome_date", "asset_key",
 )
 """The columns of ``job_row``'s tuple, in order (``uid`` is a ``uuid.UUID``; engines adapt it)."""
 KEPT_ON_REPLACE = ("uid", "created_at", "deleted_at", "bench", "origin")
 """Columns a job keeps when its result is replaced (``JobLog.replace_result``)."""
 
-UID_NAMESPACE = uuid.UUID("6f1d3c2e-8a4b-5c7d-9e0f-53424a4c0005")
-"""Namespace of the content ids given to jobs that came without a uid (older logs and exports)."""
+UID_NAMESPACE = "6f1d3c2e-8a4b-5c7d-9e0f-53424a4c0005"
+"""Namespace (a UUID) of the content ids given to jobs that came without a uid (older logs and
+exports). ``uuid`` is imported only when a uid is made or read: it is slow to import."""
 BENCH_ENV_VAR = "SHAFTBENCH_BENCH"
 
 
@@ -185,14 +186,18 @@ def bench_name() -> str:
     return socket.gethostname() or "bench"
 
 
-def content_uid(created_at: str, inputs: Any, result: Any) -> uuid.UUID:
+def content_uid(created_at: str, inputs: Any, result: Any) -> Any:
     """The uid of a job that has none: a name-based UUID (RFC 4122 version 5) of its creation time,
     inputs and result, so that the same job imported or migrated twice gets the same uid."""
-    return uuid.uuid5(UID_NAMESPACE, created_at + "\n" + payload_json(inputs, result).decode())
+    import uuid
+
+    return uuid.uuid5(uuid.UUID(UID_NAMESPACE), created_at + "\n" + payload_json(inputs, result).decode())
 
 
-def parse_uid(value: Any) -> uuid.UUID:
+def parse_uid(value: Any) -> Any:
     """A uid given as text or a UUID (LogError naming the field otherwise)."""
+    import uuid
+
     if isinstance(value, uuid.UUID):
         return value
     try:
@@ -206,7 +211,7 @@ def job_row(
     result: Any,
     meta: Mapping[str, Any],
     *,
-    uid: uuid.UUID | None = None,
+    uid: Any = None,
     bench: str | None = None,
     origin: str = "",
     created_at: str | None = None,
@@ -221,6 +226,10 @@ def job_row(
     jobs that come without one. ``bench`` defaults to ``bench_name()``. ``stored_payload``: the
     payload already encoded for these inputs and result (bulk paths that store one result many
     times); otherwise it is encoded here."""
+    if uid is None:
+        import uuid
+
+        uid = uuid.uuid4()
     inputs_json(inputs)  # checks the inputs' shape
     result_json(result)  # checks the result is a JSON-ready mapping
     text = {name: text_value(meta.get(name), name) for name in META_FIELDS}
@@ -235,7 +244,7 @@ def job_row(
     created = created_at or now_utc()
     material = material_of(inputs, result)
     return (
-        uid or uuid.uuid4(),
+        uid,
         created,
         None if updated_at in (None, created) else updated_at,
         program_version,
@@ -254,6 +263,7 @@ def job_row(
         ending["fitted_on"],
         ending["outcome"],
         ending["outcome_date"],
+        tag_key(text["asset"]),
     )
 
 
@@ -261,8 +271,9 @@ def uid_text(value: Any) -> str:
     """A stored uid (16 bytes in SQLite, a UUID in PostgreSQL) as its usual text form."""
     if value is None or value == "":
         return ""
-    if isinstance(value, (bytes, bytearray, memoryview)):
-        return str(uuid.UUID(bytes=bytes(value)))
+    if isinstance(value, (bytes, bytearray, memoryview)) and len(value) == 16:
+        h = bytes(value).hex()  # the RFC 4122 text form, 8-4-4-4-12 hex digits
+        return f"{h[:8]}-{h[8:12]}-{h[12:16]}-{h[16:20]}-{h[20:]}"
     return str(value)
 
 

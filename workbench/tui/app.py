@@ -37,7 +37,6 @@ class ShaftbenchApp(App):
         Binding("f9", "profile", "Profile", id="app.profile", tooltip="Side profile, steps, moment diagram"),
         Binding("f10", "turning", "Turning", id="app.turning", tooltip="Turning sheet: sizes, limits, keyseat", show=False),
         Binding("f11", "fits", "Fits", id="app.fits", tooltip="ISO 286 limits and fits calculator", show=False),
-        Binding("ctrl+n", "new_job", "New", id="app.new_job", tooltip="An empty sheet for a new job"),
         Binding("ctrl+q", "quit", "Quit", id="app.quit", priority=True),
     ]
 
@@ -57,6 +56,17 @@ class ShaftbenchApp(App):
         self.clean_inputs: dict[str, str] = {}  # the sheet as last saved, reopened or started
         self.logged_job_id: int | None = None
         """The log's job the sheet holds (reopened or saved), so saving again asks update or new."""
+
+    async def on_event(self, event) -> None:
+        """Keys typed ahead are handled in the order typed (see :mod:`workbench.tui.typeahead`)."""
+        from textual import events
+
+        if isinstance(event, events.Key) and not event.is_forwarded:
+            from .typeahead import key_in_order
+
+            if await key_in_order(self, event):
+                return
+        await super().on_event(event)
 
     def get_default_screen(self) -> JobScreen:
         """The job sheet is the bottom screen: one screen to compose before the first frame."""
@@ -231,7 +241,7 @@ class ShaftbenchApp(App):
         """The turning sheet of the current job (screens/turning.py)."""
         from .screens.turning import TurningScreen
 
-        self.push_screen(TurningScreen(self.job_screen.result))
+        self.push_screen(TurningScreen(self.job_screen.result, self.inputs()))
 
     def action_fits(self) -> None:
         """The ISO 286 limits and fits calculator (screens/fits.py)."""
@@ -341,7 +351,7 @@ class ShaftbenchApp(App):
         self.logged_job_id = None
         sheet = self.job_screen.sheet
         sheet.restore({key: (spec.choices[0] if spec.choices else "") for key, spec in FIELD_BY_KEY.items()})
-        self.job_screen.query_one("#power").focus()
+        self.job_screen.set_focus(self.job_screen.query_one("#power"))
         sheet.scroll_home(animate=False)
 
     async def action_quit(self) -> None:

@@ -65,11 +65,11 @@ SECTIONS: tuple[SectionSpec, ...] = (
         "1 Drive (motor nameplate)",
         (
             FieldSpec("power", "Power", "kW, hp · bare = kW", placeholder="e.g. 7.5 kW"),
-            FieldSpec("speed", "Speed", "rpm, Hz · bare = rpm", placeholder="e.g. 1460"),
-            FieldSpec("ratio", "Ratio", "motor ÷ shaft speed", placeholder="1"),
-            FieldSpec("efficiency", "Efficiency", "0.95 or 95%", placeholder="1"),
-            FieldSpec("service_factor", "Service factor", "duty of the machine", placeholder="1"),
-            FieldSpec("peak_factor", "Start torque ×", "× running torque", placeholder="2"),
+            FieldSpec("speed", "Speed", "rpm, rev/s · bare = rpm", placeholder="e.g. 1460"),
+            FieldSpec("ratio", "Ratio", "motor:shaft, e.g. 25:1", placeholder="default 1"),
+            FieldSpec("efficiency", "Efficiency", "0.95 or 95%", placeholder="default 1"),
+            FieldSpec("service_factor", "Service factor", "duty of the machine", placeholder="default 1"),
+            FieldSpec("peak_factor", "Start torque ×", "× running torque", placeholder="default 2"),
             FieldSpec("torque", "or Torque", "instead of power+speed", placeholder="N·m, lbf·in"),
         ),
     ),
@@ -79,21 +79,21 @@ SECTIONS: tuple[SectionSpec, ...] = (
         (
             FieldSpec("mount", "Element", "c v f s t g", choices=MOUNTS),
             FieldSpec("pitch_diameter", "Pitch dia.", "bare = mm", placeholder="e.g. 200"),
-            FieldSpec("overhang", "Overhang", "bearing → load line", placeholder="e.g. 60"),
+            FieldSpec("overhang", "Overhang", "to load line, bare = mm", placeholder="e.g. 60"),
         ),
     ),
-    SectionSpec("shaft", "3 Shaft as found", _shaft_fields("shaft", "material", "1045-cd")),
+    SectionSpec("shaft", "3 Shaft as found", _shaft_fields("shaft", "material", "default 1045-cd")),
     SectionSpec(
-        "candidate", "4 Candidate", _shaft_fields("candidate", "candidate_material", "as found")
+        "candidate", "4 Candidate", _shaft_fields("candidate", "candidate_material", "same as found")
     ),
     SectionSpec(
         "layout",
         "5 Layout (blank = defaults)",
         (
-            FieldSpec("bearing_span", "Bearing span", "centre to centre", placeholder="not known"),
+            FieldSpec("bearing_span", "Bearing span", "c to c · bare = mm", placeholder="not known"),
             FieldSpec("bearing_type", "Bearings", "d c t s", choices=BEARING_TYPES),
             FieldSpec("element_position", "Element sits", "o, b = between", choices=ELEMENT_POSITIONS),
-            FieldSpec("load_from_bearing", "From bearing", "bearing → load line", placeholder="e.g. 150"),
+            FieldSpec("load_from_bearing", "From bearing", "to load · bare = mm", placeholder="e.g. 150"),
             FieldSpec("hub_length", "Hub length", "along the shaft", placeholder="default"),
             FieldSpec("element_mass", "Element mass", "kg, lb · bare = kg", placeholder="not known"),
             FieldSpec("hub_material", "Hub material", "for the key", choices=HUB_MATERIALS),
@@ -114,10 +114,10 @@ SECTIONS: tuple[SectionSpec, ...] = (
         "settings",
         "6 Check settings",
         (
-            FieldSpec("required_sf", "Required SF", "for the verdict", placeholder="1.5"),
+            FieldSpec("required_sf", "Required SF", "for the verdict", placeholder="default 1.5"),
             FieldSpec("criterion", "Fatigue rule", "g e a s", choices=CRITERIA),
-            FieldSpec("reliability", "Reliability", "0.5 … 0.9999", placeholder="0.9"),
-            FieldSpec("twist_limit", "Twist limit", "e.g. 0.25 deg/m", placeholder="1° / 20 d"),
+            FieldSpec("reliability", "Reliability", "0.5 … 0.9999", placeholder="default 0.9"),
+            FieldSpec("twist_limit", "Twist limit", "e.g. 0.25 deg/m", placeholder="default 1°/20 d"),
         ),
     ),
 )

@@ -37,6 +37,41 @@ def is_field(widget: Widget | None) -> bool:
 
 
 DRAIN_TIMEOUT_S = 1.0
+NEW_SCREEN_TIMEOUT_S = 0.5
+
+
+async def key_in_order(app, event) -> bool:
+    """Handle a key typed while a field has focus in the app's own pass; True when it was used.
+
+    A field's editing keys (Backspace, Delete, arrows, Ctrl+W…) and the screen's keys (F6 save,
+    ↓ to the list) are bindings, and Textual runs a focused widget's binding only after the key
+    has gone through the widget and come back to the app: behind keys typed after it (``conv``,
+    two fast Backspaces and ``ab`` gave ``conv``, not ``coab``). Here such a key first waits for
+    the field to handle what it already has, then runs its binding at once; a key that opens a
+    screen waits (bounded) until that screen has put its cursor somewhere, so the keys after it
+    land there. Printable keys typed in a text field go the usual way (in order already).
+    """
+    from .widgets.choice import Choice
+
+    try:
+        focused = app.focused
+    except Exception:  # noqa: BLE001 - no screen yet (start-up, shut-down): the usual way
+        return False
+    if focused is None or not is_field(focused):
+        return False
+    if event.is_printable and not isinstance(focused, Choice):
+        return False
+    await handled_so_far(focused)
+    screen = app.screen
+    # priority bindings first (Enter, Tab, Ctrl+Q), then the field's and the screen's own
+    if not (await app._check_bindings(event.key, priority=True) or await app._check_bindings(event.key)):
+        return False
+    if app.screen is not screen:  # a view or a dialog opened: wait for its cursor
+        waited = 0.0
+        while app.screen.focused is None and waited < NEW_SCREEN_TIMEOUT_S:
+            await asyncio.sleep(0.01)
+            waited += 0.01
+    return True
 
 
 async def handled_so_far(widget: Widget) -> None:

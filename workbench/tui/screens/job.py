@@ -36,6 +36,7 @@ class JobScreen(TypeAheadMixin, Screen):
                 tooltip="Page through the verdict panel (its end goes back to the top)"),
         Binding("ctrl+l", "pick_material", "Materials", show=False, id="job.materials",
                 tooltip="Search the material list (for the material field with the cursor)"),
+        Binding("ctrl+n", "app.new_job", "New", id="job.new_job", tooltip="An empty sheet for a new job"),
         Binding("ctrl+z", "undo", "Undo", show=False, id="job.undo",
                 tooltip="Put back the sheet before the last change"),
         Binding("ctrl+y", "redo", "Redo", show=False, id="job.redo"),
@@ -77,6 +78,7 @@ class JobScreen(TypeAheadMixin, Screen):
     def on_resize(self, event) -> None:
         width, height = event.size
         self.set_class(width < NARROW_BELOW, "-narrow")
+        self.update_title()
         small = width < MIN_WIDTH or height < MIN_HEIGHT
         self.set_class(small, "-too-small")
         if small:
@@ -98,10 +100,26 @@ class JobScreen(TypeAheadMixin, Screen):
                 state = "… needs " + ", ".join(sorted(self.needed))
             elif self.evaluation.result is not None:
                 state = "✓ up to date"
-        update_in_place(
-            self.query_one("#title-bar", Static),
-            f" Shaftbench · {state} · {system} · Enter next field · PgDn next part",
-        )
+        tail = "Enter next field · PgDn next part"
+        if self.has_class("-narrow"):  # the hints column is hidden: the focused field's hint here
+            tail = self.focused_hint() or tail
+        update_in_place(self.query_one("#title-bar", Static), f" Shaftbench · {state} · {system} · {tail}")
+
+    def focused_hint(self) -> str:
+        """"Label: hint" of the sheet field with the cursor ("" when it has none)."""
+        focused = self.focused
+        if focused is None or not focused.id:
+            return ""
+        try:
+            row = self.sheet.row(focused.id)
+        except Exception:  # noqa: BLE001 - not a sheet field (the verdict panel, a view)
+            return ""
+        label = str(row.label.render()).strip() or row.spec.label
+        return f"{label}: {row.hint_text}" if row.hint_text else ""
+
+    def on_descendant_focus(self, event) -> None:
+        if self.has_class("-narrow"):
+            self.update_title()
 
     # -- evaluation ----------------------------------------------------------------------------
     def on_sheet_changed(self, message: SheetChanged) -> None:
@@ -119,7 +137,7 @@ class JobScreen(TypeAheadMixin, Screen):
         focused = self.focused
         key = focused.id if focused is not None and focused.id in ("material", "candidate_material") \
             else "material"
-        label = "the candidate" if key == "candidate_material" else "the shaft (and the candidate)"
+        label = "the candidate" if key == "candidate_material" else "the shaft"
 
         def take(choice: str | None) -> None:
             if choice:

@@ -39,6 +39,9 @@ COLUMNS: tuple[tuple[str, str, int], ...] = (
 """The list's columns in the order they are dropped last: id, saved, verdict and asset always show;
 location, material and who checked it are added while the width allows."""
 CELL_PADDING = 2
+FULL_CARD_COLUMNS = 90
+"""The preview shows the whole job card when its pane is at least this wide (the card's shafts table
+needs it to show values beside its labels); narrower, it shows the short summary."""
 VERDICT_CHOICES = [("pass", "pass"), ("marginal", "marginal"), ("fail", "fail")]
 CARD_SUFFIXES = {".html": "html", ".htm": "html", ".svg": "svg", ".txt": "text"}
 
@@ -189,6 +192,8 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         Binding("t", "recheck", "Recheck", id="review.recheck",
                 tooltip="Recompute with today's program and list what differs"),
         Binding("b", "toggle_bin", "Show bin", id="review.bin", tooltip="Switch between the log and the bin"),
+        Binding("f12", "asset", "Asset", id="review.asset",
+                tooltip="The history of this job's asset: its shafts on a time chart, MTBR, flags"),
         Binding("n,pagedown", "page(1)", "Next page", id="review.next"),
         Binding("p,pageup", "page(-1)", "Prev page", id="review.prev"),
         Binding("slash", "focus_filter", "Filter", id="review.filter", tooltip="Type to filter"),
@@ -243,6 +248,7 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
 
     def on_resize(self, event: Any) -> None:
         self._fit_to(event.size.width)
+        self.call_after_refresh(self._update_detail)  # the pane's new width picks card or summary
 
     def _fit_to(self, width: int) -> None:
         """Lay the screen out for ``width`` columns: narrow or wide, and the list's columns."""
@@ -405,7 +411,9 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
             from workbench.report.recheck import recheck_text
 
             parts.append(recheck_text(self.rechecks[record.id]))
-        parts.append(job_summary(record) if self.has_class("-narrow") else job_card_for_record(record))
+        pane = self.query_one("#review-detail-scroll").size.width
+        roomy = not self.has_class("-narrow") and pane >= FULL_CARD_COLUMNS
+        parts.append(job_card_for_record(record) if roomy else job_summary(record))
         detail.update(Group(*parts))
 
     # -- actions --------------------------------------------------------------------------
@@ -431,6 +439,13 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
 
     def action_reopen(self) -> None:
         self._choose("reopen")
+
+    def action_asset(self) -> None:
+        """Open the asset history of the highlighted job (every asset if it names none)."""
+        from workbench.tui.screens.asset import AssetScreen
+
+        record = self.current()
+        self.app.push_screen(AssetScreen(self.log_path, record.asset if record is not None else ""))
 
     def action_duplicate(self) -> None:
         self._choose("duplicate")

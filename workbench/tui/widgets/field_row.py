@@ -58,6 +58,7 @@ class FieldRow:
                 validate_on=(),  # the job contract validates; Input's own pass would restyle
             )
         self.hint = Static(spec.hint, classes="field-hint", id=f"hint-{key}")
+        self.hint_text = spec.hint  # also shown in the title line while the field has the cursor
         self.error: Static | None = None
         self._display = True
 
@@ -107,6 +108,7 @@ class FieldRow:
 
     def set_hint(self, hint: str) -> None:
         """Change the hint beside the field."""
+        self.hint_text = hint
         self.hint.update(hint)
 
     def set_placeholder(self, placeholder: str) -> None:

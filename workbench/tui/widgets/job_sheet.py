@@ -293,7 +293,7 @@ class JobSheet(VerticalScroll, can_focus=False):
                     current = index
         target = firsts[(current + step) % len(firsts)]
         widget = self.query_one(f"#{target}")
-        widget.focus()
+        self.screen.set_focus(widget)  # at once (focus() waits its turn: keys typed after would not)
         self.query_one(f"#title-{SECTIONS[(current + step) % len(SECTIONS)].id}").scroll_visible(
             top=True
         )

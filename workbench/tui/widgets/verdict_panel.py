@@ -162,7 +162,9 @@ class VerdictPanel(VerticalScroll, can_focus=False):
         for shaft in shafts:
             title = _ROLE_TITLE.get(shaft.get("role"), "shaft")
             lines.append(Text.assemble((f"why ({title}): ", "bold"), str(shaft.get("why", "—"))))
-        lines.extend(Text(f"! {w}") for w in self.result.get("warnings") or [])
+        from workbench.field_names import workbench_warning_lines  # field labels, not CLI options
+
+        lines.extend(Text(f"! {w}") for w in workbench_warning_lines(self.result))
         lines.extend(Text(f"· {n}") for n in shaft_notes(shafts))
         ratios = ratio_line(self.result.get("comparison") or {})
         if ratios:
@@ -184,11 +186,18 @@ def shaft_notes(shafts: list[dict[str, Any]]) -> list[str]:
     out: list[str] = []
     for shaft in shafts:
         if candidate is not None and shaft is not candidate and \
-                shaft.get("material") == candidate.get("material"):
+                _grade(shaft.get("material")) == _grade(candidate.get("material")):
             continue
         title = _ROLE_TITLE.get(shaft.get("role"), "shaft")
         out.extend(f"{title}: {note}" if len(shafts) > 1 else str(note) for note in shaft.get("notes") or [])
     return out
+
+
+def _grade(key: Any) -> str:
+    """A material key without its size range (``42crmo4-qt`` for ``42crmo4-qt-16-40``)."""
+    import re
+
+    return re.sub(r"-\d+(?:\.\d+)?-\d+(?:\.\d+)?$", "", str(key or ""))
 
 
 def ratio_line(comparison: dict[str, Any]) -> str:
