@@ -9,7 +9,9 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import VerticalScroll
 from textual.screen import Screen
-from textual.widgets import Footer, Static
+from textual.widgets import Static
+
+from ..widgets.fitting_footer import FittingFooter
 
 #: (heading, [(term, text)]) of the help: rendered as two columns, so that a long line wraps
 #: under its own text, never back to the left edge
@@ -93,7 +95,7 @@ class HelpScreen(Screen):
         with VerticalScroll(classes="view-body", id="help-body"):
             yield Static(help_keys(), id="help-keys")
             yield Static(self._result_text(), id="help-result")
-        yield Footer(compact=True)
+        yield FittingFooter(compact=True)  # whole keys only at 80 columns
 
     def _result_text(self):
         from rich.console import Group
