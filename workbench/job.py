@@ -115,6 +115,9 @@ def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
     return MaterialProps(row.key, row.name, row.tensile_Pa, row.yield_Pa, row.G_Pa, row.density_kg_m3)
 
 
+_PART_NAMES = {"sy": "Sy", "sut": "Sut", "g": "G", "e": "E", "rho": "rho"}
+
+
 def _custom_material(field: str, text: str) -> MaterialProps:
     values = {}
     for part in text.split()[1:]:
@@ -128,6 +131,17 @@ def _custom_material(field: str, text: str) -> MaterialProps:
     need = {"sy", "sut"}
     if not need <= values.keys():
         raise QuantityError(field, "custom material needs at least Sy=... and Sut=... (e.g. custom Sy=350MPa Sut=600MPa)")
+    def parse_quantity(field_, text, kind, unit, **limits):  # name the part that is wrong (E=banana)
+        from workbench.units import parse_quantity as parse
+
+        part = next((k for k, v in original.items() if v is text), "")
+        try:
+            return parse(field_, text, kind, unit, **limits)
+        except QuantityError as err:
+            raise QuantityError(field_, f"custom material {_PART_NAMES.get(part, part)}: "
+                                        f"{err.message}") from None
+
+    original = dict(values)
     sy = parse_quantity(field, values.pop("sy"), STRESS, "MPa", low=20e6, high=3000e6)
     sut = parse_quantity(field, values.pop("sut"), STRESS, "MPa", low=20e6, high=3000e6)
     if sy > sut:

@@ -61,8 +61,9 @@ class StepCheck:
     @property
     def where(self) -> str:
         """'hub seat, keyseat and shoulder, 35 mm' — the step, its raisers and its size."""
-        d_mm = self.step.diameter_m * 1000.0
-        size = f"{d_mm:.4g} mm"
+        d_m = self.step.diameter_m
+        inch = self.step.geometry.key_standard == "ansi"  # an inch spec: say the size in inches
+        size = f"{d_m / 0.0254:.4g} in" if inch else f"{d_m * 1000.0:.4g} mm"
         label = self.step.label
         if self.feature and self.feature != "plain bar" and self.feature not in label:
             label = f"{label}, {self.feature}"
