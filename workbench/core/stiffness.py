@@ -186,9 +186,15 @@ def key_figures(torque_Nm: float, seat: ShaftGeometry, key_row, hub_length_m: fl
         # the required length does not depend on the length given; any valid length finds it
         probe = key_check(torque_Nm, seat.size_m, width, height, depth, 2.0 * width, KEY_END, key_yield_Pa,
                           shaft_yield_Pa, hub.yield_Pa, required_sf)
-        notes.append("no hub length: key safety factors not computed" if length is None else
-                     "the hub is not longer than the key is wide: no round-ended key fits")
-        return KeyFigures(None, None, probe.required_length_m, None, hub.name, probe.method, tuple(notes))
+        if length is None:
+            notes.append("no hub length: key safety factors not computed")
+            return KeyFigures(None, None, probe.required_length_m, None, hub.name, probe.method, tuple(notes))
+        # a round-ended key's bearing length l - b is nil or negative: it carries no torque, so
+        # both factors are 0 and the shaft fails (rule stated in the README)
+        notes.append(f"hub too short: the key needs at least {probe.required_length_m * 1e3:.0f} mm "
+                     f"(hub length {length * 1e3:.0f} mm is not longer than the {width * 1e3:.0f} mm key width, "
+                     f"so a round-ended key has no bearing length)")
+        return KeyFigures(0.0, 0.0, probe.required_length_m, length, hub.name, probe.method, tuple(notes))
     check = key_check(torque_Nm, seat.size_m, width, height, depth, length, KEY_END, key_yield_Pa,
                       shaft_yield_Pa, hub.yield_Pa, required_sf)
     return KeyFigures(check.shear_safety_factor, check.crush_safety_factor, check.required_length_m, length,
@@ -207,9 +213,9 @@ def layout_verdict(verdict: str, governing: str, why: str, required_sf: float, m
     """
     found = []
     if key is not None:
-        for name, n in (("key shear", key.shear_safety_factor), ("key crushing", key.crush_safety_factor)):
-            if n is None:
-                continue
+        pairs = [(name, n) for name, n in (("key shear", key.shear_safety_factor),
+                                            ("key crushing", key.crush_safety_factor)) if n is not None]
+        for name, n in sorted(pairs, key=lambda pair: pair[1])[:1]:  # the weaker check speaks
             if n < required_sf:
                 found.append(("fail", "key", f"{name} over the hub length: n = {n:.2f} is below the required "
                                              f"{required_sf:g} (the key needs {key.required_length_m * 1000:.0f} mm)"))

@@ -1,0 +1,44 @@
+"""Defects found by an outside audit of the program, one test (or property) per rule."""
+
+import pytest
+from hypothesis import HealthCheck, given, settings
+from hypothesis import strategies as st
+
+from workbench.job import evaluate_inputs
+
+_HUB_JOB = {"power": "7.5 kW", "speed": "1450", "ratio": "3", "service_factor": "1.5", "mount": "vbelt",
+            "pitch_diameter": "200mm", "overhang": "60mm", "shaft": "round 35mm keyed",
+            "bearing_span": "450mm", "bearing_type": "self-aligning-ball"}
+
+
+def _key_job(hub_mm):
+    result = evaluate_inputs(dict(_HUB_JOB, hub_length=f"{hub_mm}mm"))
+    return result, result["shafts"][0]
+
+
+@pytest.mark.parametrize("hub_mm", [5, 10])
+def test_a_hub_no_longer_than_the_key_is_wide_fails_the_shaft(hub_mm):
+    """Rule: a round-ended key's bearing length is l - b (DIN 6885-1 form A, as DIN 6892 uses it);
+    at l <= b it is nil, the key carries no torque, so both key factors are 0 and the shaft fails.
+    Before the fix the key check was skipped (null) and the verdict was pass."""
+    result, shaft = _key_job(hub_mm)
+    key = shaft["key"]
+    assert key["shear_safety_factor"] == 0.0 and key["crush_safety_factor"] == 0.0
+    assert key["key_length_m"] == pytest.approx(hub_mm / 1000)
+    assert result["verdict"] == "fail"
+    assert any(w.startswith("hub too short: the key needs at least") for w in result["warnings"])
+
+
+@settings(max_examples=15, deadline=None, suppress_health_check=[HealthCheck.too_slow])
+@given(hub_mm=st.integers(min_value=2, max_value=120), shorter_mm=st.integers(min_value=1, max_value=60))
+def test_key_figures_are_never_null_with_a_hub_and_a_shorter_hub_never_helps(hub_mm, shorter_mm):
+    """Property: with a hub length and a keyed shaft the key figures are numbers, and the key
+    factors fall (never rise) as the hub gets shorter (tau = F/(b l_eff), DIN 6892 method C)."""
+    _, shaft = _key_job(hub_mm)
+    key = shaft["key"]
+    assert key["shear_safety_factor"] is not None and key["crush_safety_factor"] is not None
+    assert key["key_length_m"] is not None
+    short = max(2, hub_mm - shorter_mm)
+    _, other = _key_job(short)
+    assert other["key"]["shear_safety_factor"] <= key["shear_safety_factor"] + 1e-12
+    assert other["key"]["crush_safety_factor"] <= key["crush_safety_factor"] + 1e-12
