@@ -42,3 +42,25 @@ def test_key_figures_are_never_null_with_a_hub_and_a_shorter_hub_never_helps(hub
     _, other = _key_job(short)
     assert other["key"]["shear_safety_factor"] <= key["shear_safety_factor"] + 1e-12
     assert other["key"]["crush_safety_factor"] <= key["crush_safety_factor"] + 1e-12
+
+
+@pytest.mark.parametrize("spec", ["round 1.5in keyed", "round 1.5in key 3/8x3/8in"])
+def test_ansi_keyseat_reads_the_same_for_both_spellings(spec):
+    """ANSI B17.1 states the shaft keyseat depth at the side wall (h/2 = 3/16 in for a 3/8 key) and
+    the reading across the seat as S = D - Y - h/2, Y = (D - sqrt(D^2 - W^2))/2 the chordal height.
+    D = 1.5 in, W = h = 3/8 in: Y = 0.02381 in, S = 1.2887 in (the standard's table lists 1.289 in,
+    from memory); tolerance 0.0005 in. Before the fix 'keyed' gave S = 1.3125 in (d - h/2)."""
+    result = evaluate_inputs({"torque": "100 N*m", "shaft": spec})
+    shaft = result["shafts"][0]
+    inch = 0.0254
+    assert shaft["dimensions_m"]["key_depth_m"] == pytest.approx(3 / 16 * inch, abs=1e-7)
+    assert shaft["keyseat"]["shaft_depth_m"] == pytest.approx(3 / 16 * inch, abs=1e-7)
+    assert shaft["keyseat"]["depth_m"] / inch == pytest.approx(1.2887, abs=0.0005)
+
+
+def test_both_ansi_spellings_give_identical_figures():
+    """The same B17.1 key typed two ways is one keyseat: every figure of the shaft is the same."""
+    a = evaluate_inputs({"torque": "100 N*m", "shaft": "round 1.5in keyed", "hub_length": "40mm"})["shafts"][0]
+    b = evaluate_inputs({"torque": "100 N*m", "shaft": "round 1.5in key 3/8x3/8in", "hub_length": "40mm"})["shafts"][0]
+    for name in ("dimensions_m", "keyseat", "key", "static_safety_factor", "fatigue_safety_factor", "Kts"):
+        assert a[name] == b[name], name

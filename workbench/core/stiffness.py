@@ -175,7 +175,10 @@ def key_figures(torque_Nm: float, seat: ShaftGeometry, key_row, hub_length_m: fl
     if key_row is None and not seat.key_width_m:
         return None
     width = seat.key_width_m or key_row.width_m
-    depth = seat.key_depth_m or key_row.shaft_depth_m
+    from workbench.core.keyseat_factors import stated_depth_m
+
+    depth = stated_depth_m(seat.size_m, width, seat.key_depth_m, key_row.shaft_depth_m if key_row else 0.0,
+                           seat.key_standard)
     height = key_row.height_m if key_row is not None and abs(key_row.width_m - width) < 1e-9 else 2.0 * depth
     if height <= depth:
         height = 2.0 * depth
