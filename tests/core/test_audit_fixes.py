@@ -64,3 +64,32 @@ def test_both_ansi_spellings_give_identical_figures():
     b = evaluate_inputs({"torque": "100 N*m", "shaft": "round 1.5in key 3/8x3/8in", "hub_length": "40mm"})["shafts"][0]
     for name in ("dimensions_m", "keyseat", "key", "static_safety_factor", "fatigue_safety_factor", "Kts"):
         assert a[name] == b[name], name
+
+
+def test_own_weight_slope_of_a_uniform_shaft_matches_the_closed_form():
+    """Shigley 9th ed. Table A-9 case 7 (simple supports, uniform load w): end slope wL^3/(24EI),
+    mid-span deflection 5wL^4/(384EI). Round 20 mm steel, L = 1.5 m, E = 207 GPa, 7850 kg/m^3:
+    w = 24.19 N/m, slope 2.092e-3 rad; tolerance 0.5 % (the weight is lumped in pieces)."""
+    import math
+
+    from workbench.core.stiffness import _own_weight_beam
+
+    E, d, L, rho = 207e9, 0.020, 1.5, 7850.0
+    ei = E * math.pi * d**4 / 64
+    mass_per_m = rho * math.pi * d**2 / 4
+    w = mass_per_m * 9.80665
+    beam = _own_weight_beam(((0.0, L, ei, mass_per_m),), (0.0, L))
+    assert w * L**3 / (24 * ei) == pytest.approx(2.092e-3, rel=2e-3)  # the check value itself
+    assert abs(beam.slope_at(0.0)) == pytest.approx(w * L**3 / (24 * ei), rel=5e-3)
+    assert abs(beam.slope_at(L)) == pytest.approx(w * L**3 / (24 * ei), rel=5e-3)
+    assert abs(beam.deflection_at(L / 2)) == pytest.approx(5 * w * L**4 / (384 * ei), rel=5e-3)
+
+
+def test_a_long_coupling_shaft_has_the_slope_of_its_own_weight():
+    """The audit's case: a coupling (no side load) on a 1.5 m span gave slopes [0, 0]. With the
+    own weight the slope is wL^3/(24EI) = 2.09e-3 rad (Table A-9 case 7, as above); 3 % allows the
+    program's own steel E and density."""
+    result = evaluate_inputs({"power": "0.5 kW", "speed": "600", "shaft": "round 20mm", "bearing_span": "1500mm",
+                              "bearing_type": "self-aligning-ball", "mount": "coupling"})
+    slopes = result["shafts"][0]["bearing_slopes_rad"]
+    assert slopes[0] == pytest.approx(2.092e-3, rel=0.03) and slopes[1] == pytest.approx(2.092e-3, rel=0.03)

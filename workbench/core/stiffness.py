@@ -109,8 +109,12 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
     segments = beam_segments(steps, E_Pa, density_kg_m3)
     beam = beam_response([s[:3] for s in segments], (b1, b2), forces)
     element_x = [x for x, _ in forces]
-    deflections = tuple((x, beam.deflection_at(x)) for x in element_x)
-    slopes = (abs(beam.slope_at(b1)), abs(beam.slope_at(b2)))
+    # the shaft's own weight, added in the worse sense: the element loads' direction to gravity is
+    # not known, so |load response| + |weight response| (conservative)
+    own = _own_weight_beam(tuple(segments), (b1, b2))
+    deflections = tuple((x, math.copysign(abs(beam.deflection_at(x)) + abs(own.deflection_at(x)),
+                                          beam.deflection_at(x) or 1.0)) for x in element_x)
+    slopes = (abs(beam.slope_at(b1)) + abs(own.slope_at(b1)), abs(beam.slope_at(b2)) + abs(own.slope_at(b2)))
     kind = bearing_type or DEFAULT_BEARING_TYPE
     notes = []
     if bearing_type is None:
@@ -134,12 +138,35 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
         dunkerley_rpm=dunkerley,
         methods={
             "deflection": "double integration of M/EI over the steps, simple supports at the bearing centres "
-                          "(Shigley 9th ed. Sec. 4-4, 7-5)",
+                          "(Shigley 9th ed. Sec. 4-4, 7-5); the shaft's own weight lumped in "
+                          f"{OWN_WEIGHT_PIECES} pieces per segment, added in the worse sense",
             "slope_limit": "Shigley 9th ed. Table 7-2 (lower end of the range)",
             "critical_speed": "Rayleigh (upper) and Dunkerley (lower), the lower decides (Shigley 9th ed. Sec. 7-6)",
         },
         notes=tuple(notes),
     )
+
+
+OWN_WEIGHT_PIECES = 16
+"""Point loads per beam segment that stand for the shaft's own weight (midpoint rule: the end
+slope of a uniform simply supported shaft is within 0.1 % of wL^3/(24EI), Shigley 9th ed. Table
+A-9 case 7; tests/core/test_audit_fixes.py)."""
+GRAVITY_M_S2 = 9.80665
+
+
+@functools.lru_cache(maxsize=256)
+def _own_weight_beam(segments, supports):
+    """Beam response to the shaft's own weight alone [m, rad]: each segment's weight (mass per
+    length x g) as OWN_WEIGHT_PIECES equal point loads at the centres of equal pieces. It depends
+    on the geometry only, so it is found once per shaft."""
+    from workbench.core.beam import beam_response
+
+    loads = []
+    for x0, x1, _ei, mass_per_m in segments:
+        piece = (x1 - x0) / OWN_WEIGHT_PIECES
+        weight = mass_per_m * GRAVITY_M_S2 * piece
+        loads.extend((x0 + (k + 0.5) * piece, weight) for k in range(OWN_WEIGHT_PIECES))
+    return beam_response([seg[:3] for seg in segments], supports, loads)
 
 
 @functools.lru_cache(maxsize=256)
