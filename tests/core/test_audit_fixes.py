@@ -93,3 +93,20 @@ def test_a_long_coupling_shaft_has_the_slope_of_its_own_weight():
                               "bearing_type": "self-aligning-ball", "mount": "coupling"})
     slopes = result["shafts"][0]["bearing_slopes_rad"]
     assert slopes[0] == pytest.approx(2.092e-3, rel=0.03) and slopes[1] == pytest.approx(2.092e-3, rel=0.03)
+
+
+@pytest.mark.parametrize("size_mm, journal_mm", [(35, 33.95), (10, 8.95), (60, 58.77)])
+def test_stock_journal_column_follows_the_turning_rule_of_check(size_mm, journal_mm):
+    """One rule for check and stock (common practice): the bar's inscribed size must be at least the
+    journal's upper limit (+0.05 mm) plus a clean-up of max(1 mm, 2 % d). Square 35: 33.95 mm;
+    square 10: 8.95 mm; square 60: d = 59.95 / 1.02 = 58.77 mm (tolerance 0.01 mm). The stock rows
+    showed 35.0 and 10.0 mm, journals check refuses."""
+    from workbench.core.geometry import ShaftGeometry
+    from workbench.core.steps import can_turn
+    from workbench.job import stock_inputs
+
+    result = stock_inputs({"torque": "200 N*m"}, "square", "metric", ["1045-cd"], keyed=True)
+    row = next(r for r in result["rows"] if abs(r["size_m"] - size_mm / 1000) < 1e-9)
+    assert row["largest_journal_m"] * 1000 == pytest.approx(journal_mm, abs=0.01)
+    bar = ShaftGeometry("square", size_mm / 1000)
+    assert can_turn(bar, row["largest_journal_m"]) and not can_turn(bar, row["largest_journal_m"] + 1e-5)
