@@ -110,3 +110,17 @@ def test_stock_journal_column_follows_the_turning_rule_of_check(size_mm, journal
     assert row["largest_journal_m"] * 1000 == pytest.approx(journal_mm, abs=0.01)
     bar = ShaftGeometry("square", size_mm / 1000)
     assert can_turn(bar, row["largest_journal_m"]) and not can_turn(bar, row["largest_journal_m"] + 1e-5)
+
+
+def test_as_bar_with_a_keyed_candidate_warns_that_keyed_is_ignored():
+    """Contract of the turned-shaft issue: --as-bar runs the bar through square-bore units with no
+    keyseat; a 'keyed' candidate word is not dropped silently but named in `warnings`."""
+    from workbench.demo import demo_inputs
+
+    inputs = dict(demo_inputs(), shaft="round 35mm keyed", candidate="square 35mm keyed", as_bar="yes")
+    result = evaluate_inputs(inputs)
+    assert ("--as-bar: the bar runs through square-bore units, no keyseat is cut; 'keyed' ignored"
+            in result["warnings"])
+    assert result["shafts"][1]["steps"][0]["keyed"] is False
+    plain = evaluate_inputs(dict(inputs, candidate="square 35mm"))
+    assert not any(w.startswith("--as-bar") for w in plain["warnings"])
