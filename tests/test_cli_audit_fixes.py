@@ -21,3 +21,16 @@ def test_a_hex_journal_refusal_says_across_flats(capsys):
     err = capsys.readouterr().err
     assert code == EXIT_BAD_INPUT and err.startswith("shaftbench: --candidate: ")
     assert "across flats" in err and len(err.strip().splitlines()) == 1
+
+
+@pytest.mark.parametrize("speed, hz", [("1450 percent/s", False), ("1450 1/s", False),
+                                       ("50 Hz", True), ("1460 mHz", True)])
+def test_a_speed_refusal_gives_its_own_reason(capsys, speed, hz):
+    """Hz is refused as the supply frequency; a rate with no revolutions (percent/s, 1/s) is refused
+    as no speed unit at all, not with the Hz reason (rules of workbench.field_rules)."""
+    code = main(["check", "--torque", "100 N*m", "--speed", speed, "--shaft", "round 35mm"])
+    err = capsys.readouterr().err
+    assert code == EXIT_BAD_INPUT and err.startswith("shaftbench: --speed: ") and len(err.strip().splitlines()) == 1
+    assert ("supply frequency" in err) is hz
+    if not hz:
+        assert "not a speed unit" in err and "revolutions per time" in err
