@@ -34,3 +34,12 @@ def test_a_speed_refusal_gives_its_own_reason(capsys, speed, hz):
     assert ("supply frequency" in err) is hz
     if not hz:
         assert "not a speed unit" in err and "revolutions per time" in err
+
+
+@pytest.mark.parametrize("argv, name", [(["35mm", "zz6"], "CLASS"), (["0mm", "h6"], "SIZE")])
+def test_fit_names_its_positional_arguments_as_the_usage_line_does(capsys, argv, name):
+    """`fit SIZE CLASS` takes positional arguments: a refusal names SIZE / CLASS, never an option
+    (--size / --class) that does not exist."""
+    assert main(["fit", *argv]) == EXIT_BAD_INPUT
+    err = capsys.readouterr().err
+    assert err.startswith(f"shaftbench: {name}: ") and "--size" not in err and "--class" not in err
