@@ -77,10 +77,12 @@ def limit_arg(text: str) -> int:
 
 
 def _whole_number(text: str) -> int | None:
+    """A whole number of ASCII digits (None otherwise). More than 30 digits reads as 10**30, far past
+    any job number, without converting a pasted 5,000-digit string (Python refuses past 4,300)."""
     digits = text.strip().lstrip("+")
-    if not digits.isdigit() or not digits.isascii() or len(digits) > 30:
-        return None if not (digits.isdigit() and digits.isascii()) else 10**30
-    return int(digits)
+    if not (digits.isascii() and digits.isdigit()):
+        return None
+    return 10**30 if len(digits) > 30 else int(digits)
 
 
 def save_from_args(args: argparse.Namespace, inputs: dict[str, str], result: dict[str, Any]) -> int | None:

@@ -27,7 +27,9 @@ LABELS = {
 
 
 def option_for(key: str) -> str:
-    """The CLI option of an input key (``pitch_diameter`` -> ``--pitch-diameter``)."""
+    """The CLI option of an input key (``pitch_diameter`` -> ``--pitch-diameter``); an option stays."""
+    if key.startswith("--"):
+        return key
     return OPTIONS.get(key, "--" + key.replace("_", "-"))
 
 

@@ -98,6 +98,10 @@ def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
     named = designation(text)
     key = named.key if named is not None else text.lower()
     if named is None and key not in materials() and key not in grade_keys():
+        conditions = [k for k in grade_keys() if k.startswith(key + "-")] if key else []
+        if conditions:  # a grade without its supply condition: the strengths differ too much to guess
+            raise QuantityError(field, f"{text!r} names the grade but not its supply condition: "
+                                       f"{', '.join(conditions)} (--material list shows each)")
         close = nearest_names(text)
         hint = f"; did you mean {', '.join(close)}?" if close else ""
         raise QuantityError(field, f"unknown material {text!r}{hint} (--material list shows every name)")
@@ -109,6 +113,9 @@ def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
     except KeyError as err:
         raise QuantityError(field, str(err.args[0])) from None
     return MaterialProps(row.key, row.name, row.tensile_Pa, row.yield_Pa, row.G_Pa, row.density_kg_m3)
+
+
+_PART_NAMES = {"sy": "Sy", "sut": "Sut", "g": "G", "e": "E", "rho": "rho"}
 
 
 def _custom_material(field: str, text: str) -> MaterialProps:
@@ -124,6 +131,17 @@ def _custom_material(field: str, text: str) -> MaterialProps:
     need = {"sy", "sut"}
     if not need <= values.keys():
         raise QuantityError(field, "custom material needs at least Sy=... and Sut=... (e.g. custom Sy=350MPa Sut=600MPa)")
+    def parse_quantity(field_, text, kind, unit, **limits):  # name the part that is wrong (E=banana)
+        from workbench.units import parse_quantity as parse
+
+        part = next((k for k, v in original.items() if v is text), "")
+        try:
+            return parse(field_, text, kind, unit, **limits)
+        except QuantityError as err:
+            raise QuantityError(field_, f"custom material {_PART_NAMES.get(part, part)}: "
+                                        f"{err.message}") from None
+
+    original = dict(values)
     sy = parse_quantity(field, values.pop("sy"), STRESS, "MPa", low=20e6, high=3000e6)
     sut = parse_quantity(field, values.pop("sut"), STRESS, "MPa", low=20e6, high=3000e6)
     if sy > sut:

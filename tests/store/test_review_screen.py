@@ -287,6 +287,9 @@ def test_the_log_chooses_its_columns_by_width(tmp_path, size):
             labels = " ".join(str(k.description) for k in shown)
             for needed in ("Close", "Reopen", "Card", "Recheck"):
                 assert needed in labels, labels
+            # every key the footer offers fits whole on the line
+            offered = [key for key in screen.query("FooterKey") if key.display]
+            assert all(key.region.right <= size[0] for key in offered), labels
             # the preview shows values, not bare labels
             from rich.console import Console
 

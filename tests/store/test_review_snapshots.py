@@ -64,23 +64,32 @@ def test_log_screen_snapshot(snap_compare, tmp_path, view, size):
     assert snap_compare(app, terminal_size=size, run_before=run_before)
 
 
+class SaveHost(App[None]):
+    """Only the save prompt of a sheet that is job 1 of the log (the sheet behind it is not pinned here)."""
+
+    from workbench.tui.app import ShaftbenchApp as _App
+
+    CSS_PATH = _App.CSS_PATH  # the workbench's own styles
+
+    def __init__(self, path) -> None:
+        super().__init__()
+        self.path = path
+
+    def on_mount(self) -> None:
+        from workbench.tui.screens.save import SaveScreen
+
+        meta = {"asset": "CV-00 head drive", "location": "crusher line 0", "by": "J. Fitter",
+                "note": "worn at the bearing seats"}
+        self.push_screen(SaveScreen(dict(JOB_INPUTS["demo"]), result_for("demo"), meta, str(self.path), job_id=1))
+
+
 @pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
 def test_save_question_snapshot(snap_compare, tmp_path, size):
-    from workbench.tui.app import ShaftbenchApp
-
     path = tmp_path / "jobs.sqlite3"
     _log(path)
-    app = ShaftbenchApp(log_path=str(path))
+    app = SaveHost(path)
 
     async def run_before(pilot) -> None:
-        await pilot.pause(0.3)
-        await pilot.app.workers.wait_for_complete()
-        app._reviewed({"action": "reopen", "job_id": 1, "inputs": dict(JOB_INPUTS["demo"])})
-        for _ in range(3):
-            await pilot.pause(0.2)
-            await pilot.app.workers.wait_for_complete()
-        app.clear_notifications()
-        await pilot.press("f6")
         await _settled(pilot)
 
     assert snap_compare(app, terminal_size=size, run_before=run_before)

@@ -337,6 +337,69 @@ async def test_the_focused_fields_hint_is_in_the_title_line_at_80_columns(make_a
         assert "Power: kW, hp · bare = kW" in plain_text(title)
         await pilot.press("enter", "enter")
         await settle(pilot)
-        assert "Ratio: motor ÷ shaft speed" in plain_text(title)
+        assert "Ratio: motor:shaft, e.g. 25:1" in plain_text(title)
         ratio = app.job_screen.query_one("#ratio", Input)
         assert ratio.value == "" and ratio.placeholder.startswith("default")  # a default, not a value
+
+
+async def test_the_footer_shows_only_whole_keys_at_80_columns(make_app):
+    """At 80 columns the footer's last entry used to be cut ('^p pal e tte P')."""
+    from textual.widgets._footer import FooterKey
+
+    from workbench.tui.widgets.fitting_footer import FittingFooter, key_width
+
+    app = make_app(demo=True)
+    for width, must_show in ((80, "f7"), (120, "^n")):
+        async with app.run_test(size=(width, 24)) as pilot:
+            await settle(pilot, rounds=1)
+            footer = app.job_screen.query_one(FittingFooter)
+            keys = list(footer.query(FooterKey))
+            assert sum(key_width(k, True) for k in keys) - 1 <= width
+            assert must_show in [k.key_display for k in keys]
+            assert "f8" in [k.key_display for k in keys]  # the key that pages the verdict panel
+        app = make_app(demo=True)
+
+
+async def test_verdict_word_why_and_stale_mark_are_on_screen_at_80x24(make_app):
+    app = make_app(demo=True)
+    async with app.run_test(size=(80, 24)) as pilot:
+        await settle(pilot)
+        await _type(pilot, "power", "7.5 kV")
+        await settle(pilot)
+        panel = app.job_screen.panel
+        screen_region = app.screen.region
+        for wid in ("#verdict-banner", "#verdict-status", "#verdict-why"):
+            widget = panel.query_one(wid)
+            assert widget.region.y < screen_region.height - 1, wid  # starts above the footer
+        assert "NOT CURRENT" in plain_text(panel.query_one("#verdict-banner", Static))
+        assert "fix: power" in plain_text(panel.query_one("#verdict-status", Static))
+        before = panel.scroll_y
+        await pilot.press("f8")
+        await pilot.pause(0.2)
+        assert panel.scroll_y > before  # F8 pages on through the panel
+
+
+async def test_below_a_usable_size_the_screen_says_so(make_app):
+    app = make_app(demo=True)
+    async with app.run_test(size=(40, 12)) as pilot:
+        await settle(pilot, rounds=1)
+        note = app.job_screen.query_one("#too-small", Static)
+        assert note.display and "40×12" in plain_text(note)
+        assert not app.job_screen.query_one("#job-body").display or app.job_screen.has_class("-too-small")
+
+
+async def test_panel_says_the_material_size_note_and_the_ratios_the_cli_report_says(make_app):
+    """The CLI report's 'candidate / existing: strength …x, stiffness …x, mass …x' and the material
+    size-range note are in the workbench too (figures from the same result dict)."""
+    app = make_app(demo=True)
+    async with app.run_test(size=(120, 40)) as pilot:
+        await settle(pilot)
+        result = app.job_screen.result
+        why = plain_text(app.job_screen.panel.query_one("#verdict-why", Static))
+        comparison = result["comparison"]
+        assert f"strength {comparison['strength_ratio']:.2f}×" in why
+        assert f"stiffness {comparison['stiffness_ratio']:.2f}×" in why
+        assert f"mass {comparison['mass_ratio']:.2f}×" in why
+        note = result["shafts"][1]["notes"][0]
+        assert "tabled strengths hold for" in note
+        assert "tabled strengths hold for" in " ".join(why.split())

@@ -24,6 +24,8 @@ SCREENS = {
     "substitute": ["f3"],
     "stock": ["f4", "s"],
     "save": ["f6"],
+    "materials": ["ctrl+l"],  # the material pick-list
+    "confirm": None,  # special: an edit, then Ctrl+Q asks before the unsaved job is lost
     "layout": ["pagedown"] * 4,  # the sheet's layout part (bearings, hub, steps)
     "profile": None,  # special: the profile view of a result with steps (tests/tui/steps_fixture)
 }
@@ -44,6 +46,10 @@ def test_screen_snapshot(snap_compare, screen, size, tmp_path):
         if screen == "job_invalid":
             power = app.screen.query_one("#power", Input)
             power.value = "7.5 kV"
+        elif screen == "confirm":
+            app.screen.query_one("#power", Input).value = "7.6 kW"
+            await settle(pilot)
+            await pilot.press("ctrl+q")
         elif screen == "profile":
             from workbench.tui.screens.profile import ProfileScreen
 

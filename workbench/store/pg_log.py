@@ -16,10 +16,10 @@ them; messages name the log by its URL with any password removed, never echoed.
   save is REFUSED with nothing half-written: PostgreSQL rolls back a transaction whose COMMIT did
   not arrive, and if the COMMIT arrived but its answer was lost, saving again stores nothing twice
   (same uid). The message says the job was not saved and to save again.
-- Text filters: ``search_text LIKE '%word%'`` for every word, served by a pg_trgm GIN index for
-  words of three characters or more (pg_trgm extracts no trigram from a shorter word, so a filter of
-  only 1-2 character words reads the rows in time order and stops when the page is full; its count
-  reads them all).
+- Text filters: every word must be in ``search_text``: ``LIKE '%word%'`` served by a pg_trgm GIN
+  index for words of three characters or more; a shorter word (pg_trgm extracts no trigram from it)
+  is tested with ``strpos`` on the rows the other words found, or on every row when no word is long
+  enough (its count then reads every job).
 """
 
 from __future__ import annotations
@@ -255,8 +255,14 @@ class PgJobLog(JobLog):
     def _text_clauses(self, text: str, clauses: list[str], params: list[Any]) -> tuple[str, list[Any]]:
         clauses, params = list(clauses), list(params)
         for word in filter_words(text):
-            clauses.append("search_text LIKE ?")  # backslash is PostgreSQL's LIKE escape too
-            params.append(like_pattern(word))
+            if len(word) >= schema.TEXT_INDEX_MIN_CHARS:
+                clauses.append("search_text LIKE ?")  # the trigram index; backslash escapes, as in SQLite
+                params.append(like_pattern(word))
+            else:
+                # pg_trgm takes no trigram from a 1-2 character word and would read its whole index:
+                # strpos (the same test: the word is in the text) keeps such a word off the index
+                clauses.append("strpos(search_text, ?) > 0")
+                params.append(word)
         return (" WHERE " + " AND ".join(clauses) if clauses else ""), params
 
     def _page_ids(
@@ -292,7 +298,7 @@ class PgJobLog(JobLog):
                     for row in rows:
                         copy.write_row(row)
                         count += 1
-            self.conn.execute("ANALYZE jobs")
+            self.conn.execute("VACUUM (ANALYZE) jobs")  # as autovacuum would: index-only counts
         except psycopg.Error as err:
             raise friendly(err, self._url) from None
         return count

@@ -37,7 +37,6 @@ class ShaftbenchApp(App):
         Binding("f9", "profile", "Profile", id="app.profile", tooltip="Side profile, steps, moment diagram"),
         Binding("f10", "turning", "Turning", id="app.turning", tooltip="Turning sheet: sizes, limits, keyseat", show=False),
         Binding("f11", "fits", "Fits", id="app.fits", tooltip="ISO 286 limits and fits calculator", show=False),
-        Binding("ctrl+n", "new_job", "New", id="app.new_job", tooltip="An empty sheet for a new job"),
         Binding("ctrl+q", "quit", "Quit", id="app.quit", priority=True),
     ]
 

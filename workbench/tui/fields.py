@@ -55,7 +55,7 @@ def _shaft_fields(prefix: str, material_key: str, material_placeholder: str) -> 
         FieldSpec(f"{prefix}_second", "Bore", "bare = mm", placeholder="inside dia."),
         FieldSpec(f"{prefix}_keyseat", "Keyseat", "k = keyed, p = plain", choices=KEYSEATS),
         FieldSpec(f"{prefix}_finish", "Finish", "m g c h f", choices=FINISHES),
-        FieldSpec(material_key, "Material", "^L list · EN19, C45 ok", placeholder=material_placeholder),
+        FieldSpec(material_key, "Material", "^L list · EN19 ok", placeholder=material_placeholder),
     )
 
 
@@ -65,8 +65,8 @@ SECTIONS: tuple[SectionSpec, ...] = (
         "1 Drive (motor nameplate)",
         (
             FieldSpec("power", "Power", "kW, hp · bare = kW", placeholder="e.g. 7.5 kW"),
-            FieldSpec("speed", "Speed", "rpm, Hz · bare = rpm", placeholder="e.g. 1460"),
-            FieldSpec("ratio", "Ratio", "motor ÷ shaft speed", placeholder="default 1"),
+            FieldSpec("speed", "Speed", "rpm, rev/s · bare = rpm", placeholder="e.g. 1460"),
+            FieldSpec("ratio", "Ratio", "motor:shaft, e.g. 25:1", placeholder="default 1"),
             FieldSpec("efficiency", "Efficiency", "0.95 or 95%", placeholder="default 1"),
             FieldSpec("service_factor", "Service factor", "duty of the machine", placeholder="default 1"),
             FieldSpec("peak_factor", "Start torque ×", "× running torque", placeholder="default 2"),

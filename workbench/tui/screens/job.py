@@ -36,6 +36,7 @@ class JobScreen(TypeAheadMixin, Screen):
                 tooltip="Page through the verdict panel (its end goes back to the top)"),
         Binding("ctrl+l", "pick_material", "Materials", show=False, id="job.materials",
                 tooltip="Search the material list (for the material field with the cursor)"),
+        Binding("ctrl+n", "app.new_job", "New", id="job.new_job", tooltip="An empty sheet for a new job"),
         Binding("ctrl+z", "undo", "Undo", show=False, id="job.undo",
                 tooltip="Put back the sheet before the last change"),
         Binding("ctrl+y", "redo", "Redo", show=False, id="job.redo"),
@@ -136,7 +137,7 @@ class JobScreen(TypeAheadMixin, Screen):
         focused = self.focused
         key = focused.id if focused is not None and focused.id in ("material", "candidate_material") \
             else "material"
-        label = "the candidate" if key == "candidate_material" else "the shaft (and the candidate)"
+        label = "the candidate" if key == "candidate_material" else "the shaft"
 
         def take(choice: str | None) -> None:
             if choice:

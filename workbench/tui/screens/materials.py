@@ -7,6 +7,7 @@ The search matches key, name, condition and designations, in any case.
 
 from __future__ import annotations
 
+from rich.text import Text
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Vertical
@@ -46,10 +47,10 @@ class MaterialPicker(ModalScreen[str | None]):
     MaterialPicker #materials-note { height: auto; color: $text-muted; }
     """
 
-    def __init__(self, field_label: str, query: str = "") -> None:
+    def __init__(self, field_label: str, current: str = "") -> None:
         super().__init__()
         self.field_label = field_label
-        self.query_text = query
+        self.current = current.strip().lower()  # highlighted at first; the search starts empty
         from workbench.core.material_names import listing
 
         self.all_rows = listing()
@@ -57,9 +58,9 @@ class MaterialPicker(ModalScreen[str | None]):
 
     def compose(self) -> ComposeResult:
         with Vertical(id="materials-box"):
-            yield Static(Content(f"Material for {self.field_label} — type to search, ↑↓ move, "
-                                 "Enter takes, Esc cancels"), classes="view-title")
-            yield Input(self.query_text, placeholder="search: EN19, c45, stainless, 4140…",
+            yield Static(Content(f"Material for {self.field_label} · type to search · Enter takes · Esc"),
+                         classes="view-title")
+            yield Input("", placeholder="search: EN19, c45, stainless, 4140…",
                         id="materials-query", compact=True)
             yield DataTable(id="materials-table", cursor_type="row", zebra_stripes=True)
             yield Static("", id="materials-note")
@@ -68,6 +69,9 @@ class MaterialPicker(ModalScreen[str | None]):
         table = self.query_one(DataTable)
         table.add_columns("key", "material", "yield MPa", "tensile MPa", "bar sizes", "also typed as")
         self._fill()
+        keys = [row["key"] for row in self.rows]
+        if self.current in keys:
+            table.move_cursor(row=keys.index(self.current))
         self.query_one(Input).focus()
 
     def _fill(self) -> None:
@@ -75,8 +79,8 @@ class MaterialPicker(ModalScreen[str | None]):
         table.clear()
         self.rows = matching(self.all_rows, self.query_one(Input).value)
         for row in self.rows:
-            table.add_row(Content(row["key"]), Content(row["name"]), row["yield_MPa"], row["tensile_MPa"],
-                          Content(row["sizes"]), Content(row["also"]))
+            table.add_row(Text(row["key"]), Text(row["name"]), row["yield_MPa"], row["tensile_MPa"],
+                          Text(row["sizes"]), Text(row["also"]))  # Text: literal, measured for width
         note = self.query_one("#materials-note", Static)
         if self.rows:
             note.update(Content(f"{len(self.rows)} of {len(self.all_rows)} · strengths are the table's "

@@ -196,7 +196,8 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
                 tooltip="The history of this job's asset: its shafts on a time chart, MTBR, flags"),
         Binding("n,pagedown", "page(1)", "Next page", id="review.next"),
         Binding("p,pageup", "page(-1)", "Prev page", id="review.prev"),
-        Binding("slash", "focus_filter", "Filter", id="review.filter", tooltip="Type to filter"),
+        Binding("slash", "focus_filter", "Filter", id="review.filter", show=False,
+                tooltip="Back to the filter box (always in view at the top)"),
         Binding("down", "to_table", "Jobs", id="review.to_table", show=False,
                 tooltip="From the filter, move to the list of jobs"),
     ]
@@ -254,7 +255,9 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         """Lay the screen out for ``width`` columns: narrow or wide, and the list's columns."""
         narrow = width < NARROW_BELOW
         self.set_class(narrow, "-narrow")
-        self.query_one(Footer).compact = narrow
+        footer = self.query_one(Footer)
+        footer.compact = narrow
+        footer.show_command_palette = not narrow  # Ctrl+P still opens it; its room goes to our keys
         table_width = width - 2 if narrow else (width * 3) // 5 - 2
         chosen = choose_columns(table_width)
         if tuple(key for key, _ in chosen) == self.columns and self.query_one(DataTable).columns:

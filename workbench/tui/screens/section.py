@@ -17,12 +17,13 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
-from textual.widgets import Footer, LoadingIndicator, Static
+from textual.widgets import LoadingIndicator, Static
 from textual.worker import get_current_worker
 
 from workbench.report import display
 from .. import engine
 from ..widgets.section_plot import PEAK_MARK, RAMP, legend, render_map
+from ..widgets.fitting_footer import FittingFooter
 
 _ROLE_TITLE = {"shaft": "as found", "candidate": "candidate"}
 
@@ -112,7 +113,7 @@ class SectionScreen(Screen):
             with Horizontal(id="section-row"):
                 yield Static("", id="section-shaft", classes="section-cell")
                 yield Static("", id="section-candidate", classes="section-cell")
-        yield Footer(compact=True)
+        yield FittingFooter(compact=True)  # whole keys only at 80 columns
 
     def on_mount(self) -> None:
         self.system = getattr(self.app, "system", "metric")

@@ -4,18 +4,20 @@ from __future__ import annotations
 
 from typing import Any
 
+from rich.text import Text
 from textual import work
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal
 from textual.content import Content
 from textual.screen import Screen
-from textual.widgets import DataTable, Footer, Input, Label, Static
+from textual.widgets import DataTable, Input, Label, Static
 
 from workbench.report import display
 from .. import engine
 from ..fields import PROFILES
 from ..widgets.choice import Choice
+from ..widgets.fitting_footer import FittingFooter
 
 
 class StockScreen(Screen[dict[str, str] | None]):
@@ -49,7 +51,7 @@ class StockScreen(Screen[dict[str, str] | None]):
             yield Static("comma between", classes="field-hint")
         yield Static("", id="stock-status", classes="view-note")
         yield DataTable(id="stock-table", cursor_type="row", zebra_stripes=True)
-        yield Footer(compact=True)
+        yield FittingFooter(compact=True)  # whole keys only at 80 columns
 
     def on_mount(self) -> None:
         self.query_one("#stock-profile", Choice).focus()
@@ -99,12 +101,12 @@ class StockScreen(Screen[dict[str, str] | None]):
                           "journal")
         for row in rows:
             table.add_row(
-                Content(row["spec"]),
-                Content(row["material"]),
+                Text(row["spec"]),  # Text, not a str: shown as written, and measured for the width
+                Text(row["material"]),
                 display.factor(row.get("sf")),
                 "—" if row.get("margin") is None else f"{row['margin'] * 100:+.0f} %",
                 display.verdict(row.get("verdict")),
-                Content(row.get("governing") or "—"),
+                Text(row.get("governing") or "—"),
                 display.mass_per_length(row.get("mass_kg_per_m"), self.system),
                 display.length(row.get("journal_m"), self.system) + (" *" if row.get("journal_short") else ""),
             )
@@ -149,7 +151,7 @@ def _required_sf(inputs: dict[str, str]) -> float:
         return 1.5
 
 
-def governing_text(row: dict[str, Any], width: int = 22) -> str:
+def governing_text(row: dict[str, Any], width: int = 18) -> str:
     """The check a stock row's verdict rests on, as the CLI's ``stock`` names it: ``twist``,
     ``fatigue at shoulder at bearing 1`` (cut to ``width`` with an ellipsis)."""
     text = str(row.get("governing") or "")

@@ -12,10 +12,11 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import VerticalScroll
 from textual.screen import Screen
-from textual.widgets import Footer, Static
+from textual.widgets import Static
 
 from workbench.report import display
 from .. import engine
+from ..widgets.fitting_footer import FittingFooter
 
 
 class SubstituteScreen(Screen):
@@ -32,7 +33,7 @@ class SubstituteScreen(Screen):
         yield Static("Substitution sizes — Esc to go back", classes="view-title")
         with VerticalScroll(classes="view-body"):
             yield Static("working…", id="substitute-body")
-        yield Footer(compact=True)
+        yield FittingFooter(compact=True)  # whole keys only at 80 columns
 
     def on_mount(self) -> None:
         self._compute(dict(self.inputs))
