@@ -194,7 +194,7 @@ def check_steps(
     methods = dict(base.methods)
     methods["steps"] = ("each step at its own moment and torque; shoulders by Peterson's SCF 3rd ed. Charts "
                         "3.10/3.12 fits; keyseat by Shigley 9th ed. Table 7-1; the weakest step governs")
-    return replace(
+    return _replaced(
         base,
         side_load_N=pull_design,
         bending_moment_Nm=gov.bending_moment_Nm,
@@ -224,6 +224,18 @@ def check_steps(
         placed=placed,
         side_loads=tuple(forces_design),
     )
+
+
+def _replaced(obj, **changes):
+    """A copy of the frozen dataclass ``obj`` with ``changes``: what ``dataclasses.replace`` gives for a
+    class with no ``__post_init__`` and no derived fields, without calling ``__init__`` field by field."""
+    fields = obj.__dict__
+    if not changes.keys() <= fields.keys():
+        raise TypeError(f"not fields of {type(obj).__name__}: {sorted(changes.keys() - fields.keys())}")
+    new = object.__new__(type(obj))
+    new.__dict__.update(fields)
+    new.__dict__.update(changes)
+    return new
 
 
 def _key(checks: list[StepCheck], placed: Placed, material: MaterialProps, torque_Nm: float,
