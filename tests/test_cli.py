@@ -373,4 +373,4 @@ def test_substitute_rounds_to_a_caliper_step_up_and_shows_the_next_stock():
 def test_double_d_flats_that_meet_are_refused_on_one_line(capsys):
     """Two flats each half the diameter deep leave nothing: refused naming --shaft, no traceback."""
     assert_bad_input(*run_main(capsys, ["check", "--power", "7.5", "--speed", "1450", "--shaft",
-                                        "round 35mm double-d 17.5mm"]), "--shaft")
+                                        "round 35mm double-d 17.5mm"]), "shaft")

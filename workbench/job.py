@@ -98,6 +98,10 @@ def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
     named = designation(text)
     key = named.key if named is not None else text.lower()
     if named is None and key not in materials() and key not in grade_keys():
+        conditions = [k for k in grade_keys() if k.startswith(key + "-")] if key else []
+        if conditions:  # a grade without its supply condition: the strengths differ too much to guess
+            raise QuantityError(field, f"{text!r} names the grade but not its supply condition: "
+                                       f"{', '.join(conditions)} (--material list shows each)")
         close = nearest_names(text)
         hint = f"; did you mean {', '.join(close)}?" if close else ""
         raise QuantityError(field, f"unknown material {text!r}{hint} (--material list shows every name)")

@@ -49,6 +49,15 @@ def test_a_table_key_is_never_read_as_a_designation():
     assert _shaft("1045-cd")["material"] == "1045-cd"
 
 
+@pytest.mark.parametrize(("grade", "conditions"), [("1045", ("1045-hr", "1045-cd")), ("c45", ("c45-n", "c45-qt"))])
+def test_a_grade_without_its_supply_condition_lists_the_conditions(grade, conditions):
+    """AISI 1045 hot-rolled vs cold-drawn: Sy 310 vs 530 MPa (Shigley 9th ed. Table A-20)."""
+    with pytest.raises(JobInputError) as err:
+        evaluate_inputs({**JOB, "shaft": "round 40mm", "material": grade})
+    assert "supply condition" in str(err.value)
+    assert all(c in str(err.value) for c in conditions)
+
+
 def test_a_miss_suggests_the_nearest_names():
     with pytest.raises(JobInputError) as err:
         evaluate_inputs({**JOB, "shaft": "round 40mm", "material": "EN18"})

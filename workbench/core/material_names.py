@@ -1,10 +1,11 @@
-"""Material names a fitter uses (EN8, EN19, C45, 42CrMo4, 1045) -> rows of the material table.
+"""Material names a fitter uses (EN8, EN19, 709M40, 42CrMo4) -> rows of the material table.
 
 ``data/materials.csv`` keys carry the supply condition and, for EN grades, the size range
 (``c45-qt-16-40``). A fitter names a steel as it is stamped or ordered. This module reads
 ``data/material_names.csv``: each common designation, the standard it comes from, the table key it
 is read as (the grade's usual supply condition, or the weakest one where there is no usual one),
-that condition in words, and the other conditions to offer. A size-ranged grade key (``c45-qt``)
+that condition in words, and the other conditions to offer. A bare grade (``1045``, ``c45``) is
+not a designation: its conditions differ too much to pick one (the job refuses it, listing them). A size-ranged grade key (``c45-qt``)
 is completed with the row for the bar's size by :func:`workbench.core.tables.material_for_size`.
 
 Pure: no Textual, Rich, SQLite or pint.

@@ -55,7 +55,7 @@ def _shaft_fields(prefix: str, material_key: str, material_placeholder: str) -> 
         FieldSpec(f"{prefix}_second", "Bore", "bare = mm", placeholder="inside dia."),
         FieldSpec(f"{prefix}_keyseat", "Keyseat", "k = keyed, p = plain", choices=KEYSEATS),
         FieldSpec(f"{prefix}_finish", "Finish", "m g c h f", choices=FINISHES),
-        FieldSpec(material_key, "Material", "^L list · EN19, C45 ok", placeholder=material_placeholder),
+        FieldSpec(material_key, "Material", "^L list · EN19 ok", placeholder=material_placeholder),
     )
 
 

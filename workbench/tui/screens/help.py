@@ -42,7 +42,8 @@ HELP_PARTS: tuple[tuple[str, tuple[tuple[str, str], ...]], ...] = (
         ("round", "40 d-flat 2: one ground flat 2 mm deep · 40 double-d 2: two opposite flats"),
         ("square, flat", "40 radius 3: rounded corners · 40 chamfer 2: chamfered corners"),
         ("materials", "a key (1045-cd), a grade whose row is picked by the bar size (c45-qt), or a "
-                      "designation (EN8, EN19, C45, 42CrMo4): the panel says how it was read"),
+                      "designation (EN8, EN19, 42CrMo4): the panel says how it was read; a bare grade (1045, c45) "
+                      "asks for its supply condition"),
         ("defaults", "a field showing 'default …' is empty: the default is used until you type"),
         ("results", "follow every keystroke; a field that cannot be read is marked where it is, and "
                     "the last good result stays, marked NOT CURRENT, until it is fixed"),
