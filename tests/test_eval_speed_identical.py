@@ -56,3 +56,29 @@ def test_every_result_equals_the_recording_twice_over(rounds):
         for i in (order if n % 2 == 0 else order[::-1]):
             row = RECORDED[i]
             assert _text(_result(row["inputs"])) == _text(row), f"job {i} differs: {row['inputs']}"
+
+
+def _remembering_functions():
+    """Every look-up that remembers answers between evaluations (functools caches)."""
+    from workbench.core import checks, fatigue, fit_advice, fits, iso286, keyseat_factors, sections, step_checks
+    from workbench.core import stiffness, turning
+
+    return [sections._remembered_section, fatigue._marin, checks._features_of, keyseat_factors.read_keyseat,
+            step_checks._step_features, step_checks._keyseat_scale, turning._zone_fields, fit_advice.journal_class,
+            fit_advice.seat_class, fits.fit, iso286.limits, stiffness._critical]
+
+
+def test_remembered_answers_equal_fresh_ones():
+    """Independent of the recording: each job computed with every cache emptied first equals the same
+    job computed after all the others have filled the caches (in the reverse order)."""
+    jobs = [row["inputs"] for row in RECORDED]
+    fresh = []
+    for job in jobs:
+        for func in _remembering_functions():
+            func.cache_clear()
+        fresh.append(_text(_result(job)))
+    assert all(func.cache_info().currsize > 0 for func in _remembering_functions())  # each one is used
+    warm = [_text(_result(job)) for job in reversed(jobs)][::-1]
+    for i, (a, b) in enumerate(zip(fresh, warm)):
+        assert a == b, f"job {i} differs once the caches are warm: {jobs[i]}"
+
