@@ -61,11 +61,11 @@ def test_every_result_equals_the_recording_twice_over(rounds):
 def _remembering_functions():
     """Every look-up that remembers answers between evaluations (functools caches)."""
     from workbench.core import checks, fatigue, fit_advice, fits, iso286, keyseat_factors, sections, step_checks
-    from workbench.core import stiffness, turning
+    from workbench.core import stiffness, tables, turning
 
     return [sections._remembered_section, fatigue._marin, checks._features_of, keyseat_factors.read_keyseat,
             step_checks._step_features, step_checks._keyseat_scale, turning._zone_fields, fit_advice.journal_class,
-            fit_advice.seat_class, fits.fit, iso286.limits, stiffness._critical]
+            fit_advice.seat_class, fits.fit, iso286.limits, stiffness._critical, tables._sorted_stock]
 
 
 def test_remembered_answers_equal_fresh_ones():
