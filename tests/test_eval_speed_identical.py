@@ -77,8 +77,8 @@ def test_remembered_answers_equal_fresh_ones():
         for func in _remembering_functions():
             func.cache_clear()
         fresh.append(_text(_result(job)))
-    assert all(func.cache_info().currsize > 0 for func in _remembering_functions())  # each one is used
     warm = [_text(_result(job)) for job in reversed(jobs)][::-1]
+    assert all(func.cache_info().currsize > 0 for func in _remembering_functions())  # each one is used
     for i, (a, b) in enumerate(zip(fresh, warm)):
         assert a == b, f"job {i} differs once the caches are warm: {jobs[i]}"
 
