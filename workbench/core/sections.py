@@ -180,7 +180,9 @@ def _section_for(geometry: ShaftGeometry, key=None) -> Section:
         raise ValueError(f"unknown profile {g.profile!r}")
     if g.keyed and g.profile in ("round", "tube"):
         key_w = g.key_width_m or (key.width_m if key else 0.0)
-        key_d = g.key_depth_m or (key.shaft_depth_m if key else 0.0)
+        from workbench.core.keyseat_factors import stated_depth_m
+
+        key_d = stated_depth_m(g.size_m, key_w, g.key_depth_m, key.shaft_depth_m if key else 0.0, g.key_standard)
         area -= key_w * key_d
         methods["keyseat"] = ("nominal stress on the full diameter, keyseat by Kt/Kts (Shigley 9th ed., Table 7-1); "
                               "twist on the plain round, as a keyseat runs only under the hub")

@@ -189,6 +189,7 @@ def check_steps(
     if key is not None:
         # "no hub length" is already said by the layout's warning
         all_notes.extend(n for n in key.notes if not n.startswith("no hub length") and n not in all_notes)
+        assumptions.extend(n for n in key.notes if n.startswith("hub too short") and n not in assumptions)
     verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
                                              stiffness, loads.shaft_speed_rpm)
     methods = dict(base.methods)
