@@ -48,6 +48,7 @@ class Recommendation:
     source: str
 
 
+@functools.lru_cache(maxsize=512)  # pure: a job asks the same few again on every keystroke
 def journal_class(diameter_m: float, *, mounting: str = "pressed", rotating: str = "inner",
                   load: str = "normal", roller: bool = False) -> Recommendation:
     """Shaft class for a bearing journal (common practice, see the module docstring)."""
@@ -71,6 +72,7 @@ def journal_class(diameter_m: float, *, mounting: str = "pressed", rotating: str
                           f"{kind} bearing, inner ring rotating, {load} load, {d_mm:g} mm", SOURCE_JOURNAL)
 
 
+@functools.lru_cache(maxsize=128)  # pure
 def seat_class(element: str, load: str = "normal") -> Recommendation:
     """Shaft class for a keyed hub seat (hub bored H7), by element; a heavy load one step tighter."""
     cls = _SEAT_FOR_ELEMENT.get(element, "k6")

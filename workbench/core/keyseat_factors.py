@@ -23,7 +23,7 @@ from __future__ import annotations
 import csv
 import math
 from dataclasses import dataclass
-from functools import cache
+from functools import cache, lru_cache
 
 from workbench.core.geometry import ShaftGeometry
 
@@ -122,6 +122,7 @@ def _nearest_standard(diameter_m: float, standard: str) -> tuple[float, float]:
     return seat[0] * scale, seat[1] * scale
 
 
+@lru_cache(maxsize=512)  # pure in the frozen geometry; a refusal is raised anew each time
 def read_keyseat(geometry: ShaftGeometry) -> KeyseatReading:
     """The keyseat of a keyed round or tube as it will be checked; raises KeyseatRefused."""
     g = geometry

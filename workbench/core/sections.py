@@ -9,6 +9,7 @@ Each value's method is recorded in ``methods`` so that every figure shown can be
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, field
 from functools import cache
@@ -127,6 +128,21 @@ def solved_section(geometry: ShaftGeometry) -> tuple[float, float, float, float,
 
 
 def section_for(geometry: ShaftGeometry, key=None) -> Section:
+    """Section properties for ``geometry`` (see :func:`_section_for`); the properties of a section met
+    before are remembered (the journals and shoulders of one shaft often share a diameter, and a
+    keystroke re-checks the same bars). Section is frozen and nobody changes its ``methods``."""
+    try:
+        return _remembered_section(geometry, key)
+    except TypeError:  # a key row that is not hashable: computed afresh
+        return _section_for(geometry, key)
+
+
+@functools.lru_cache(maxsize=1024)
+def _remembered_section(geometry: ShaftGeometry, key) -> Section:
+    return _section_for(geometry, key)
+
+
+def _section_for(geometry: ShaftGeometry, key=None) -> Section:
     """Section properties for ``geometry``.
 
     ``key`` is the keyseat size row (an object with ``width_m`` and ``shaft_depth_m``) for a keyed
