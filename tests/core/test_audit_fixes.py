@@ -124,3 +124,17 @@ def test_as_bar_with_a_keyed_candidate_warns_that_keyed_is_ignored():
     assert result["shafts"][1]["steps"][0]["keyed"] is False
     plain = evaluate_inputs(dict(inputs, candidate="square 35mm"))
     assert not any(w.startswith("--as-bar") for w in plain["warnings"])
+
+
+@pytest.mark.parametrize("hours, heavy, extreme", [("1/2h", 1.0, 1.25), ("3h", 1.25, 1.5),
+                                                   ("10h", 1.5, 1.75), ("24h", 1.75, 2.0)])
+def test_duty_heavy_shock_column_reads_the_published_table(hours, heavy, extreme):
+    """The heavy-shock column at 1/2, 3, 10, 24 h a day: 1.0 / 1.25 / 1.5 / 1.75, as in the csv's
+    source (AGMA service factors, electric-motor input, Leeson manual p. 82) and in AGMA 6010-E88
+    as reproduced in a gearmotor maker's catalogue (heavy shock 1.0/1.25/1.5/1.75 at 1/2, 2, 10,
+    24 h). The 1.25/1.5/1.75/2.0 once recalled for heavy shock is that catalogue's heavy shock with
+    more than 10 starts an hour, the table's `extreme` column. Exact (table values)."""
+    from workbench.duty import duty_service_factor
+
+    assert duty_service_factor("duty", f"crusher-heavy {hours}")[0] == heavy
+    assert duty_service_factor("duty", f"crusher-extreme {hours}")[0] == extreme
