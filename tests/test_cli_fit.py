@@ -100,9 +100,9 @@ def test_shaft_range_for_a_measured_bore(capsys):
 
 
 @pytest.mark.parametrize("argv,field", [
-    (["35mm", "q6"], "class"), (["35mm", "k66"], "class"), (["0mm", "k6"], "size"), (["501mm", "h6"], "size"),
-    (["20mm", "t6"], "class"), (["35mm", "k6", "--measured", "5kg"], "measured"), (["35mm", "j9"], "class"),
-    (["35mm", "H7/H7"], "class"), (["ten", "k6"], "size"), (["35mm", "k6", "--measured", "35mm", "--temperature", "hot"], "temperature"),
+    (["35mm", "q6"], "CLASS"), (["35mm", "k66"], "CLASS"), (["0mm", "k6"], "SIZE"), (["501mm", "h6"], "SIZE"),
+    (["20mm", "t6"], "CLASS"), (["35mm", "k6", "--measured", "5kg"], "measured"), (["35mm", "j9"], "CLASS"),
+    (["35mm", "H7/H7"], "CLASS"), (["ten", "k6"], "SIZE"), (["35mm", "k6", "--measured", "35mm", "--temperature", "hot"], "temperature"),
     (["35mm", "k6", "--bore", "35mm"], "bore"),
 ])
 def test_bad_input_is_one_line_exit_2(capsys, argv, field):

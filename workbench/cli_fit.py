@@ -34,9 +34,18 @@ def add_fit_command(commands) -> None:
 def run_fit(args: argparse.Namespace) -> int:
     from workbench.fitcalc import fit_inputs, fit_text
 
+    from workbench.job import JobInputError
+
     measured = [[part for value in group for part in value.split(",") if part.strip()] for group in (args.measured or [])]
-    result = fit_inputs(args.size, args.fit_class, measured=measured or None, temperature=args.temperature,
-                        uncertainty=args.uncertainty, expansion=args.expansion, bore=args.bore)
+    try:
+        result = fit_inputs(args.size, args.fit_class, measured=measured or None, temperature=args.temperature,
+                            uncertainty=args.uncertainty, expansion=args.expansion, bore=args.bore)
+    except JobInputError as err:
+        # SIZE and CLASS are positional: name them as the usage line does, not as options
+        positional = {"size": "SIZE", "class": "CLASS"}.get(err.field)
+        if positional is None:
+            raise
+        raise JobInputError(positional, f"{err.message.rstrip()}") from None
     if args.json:
         sys.stdout.write(json.dumps(result, indent=2, allow_nan=False) + "\n")
     else:

@@ -48,8 +48,10 @@ MAX_JOB_ID = 2**63 - 1
 
 def cut(text: str, limit: int = 60) -> str:
     """``text`` for a one-line message: at most ``limit`` characters, the cut marked with '…'."""
+    from workbench.text_cut import cut_words
+
     text = str(text)
-    return text if len(text) <= limit else text[: limit - 1] + "…"
+    return text if len(text) <= limit else cut_words(text, limit)
 
 
 def log_path_arg(text: str) -> str:

@@ -28,7 +28,7 @@ LABELS = {
 
 def option_for(key: str) -> str:
     """The CLI option of an input key (``pitch_diameter`` -> ``--pitch-diameter``); an option stays."""
-    if key.startswith("--"):
+    if key.startswith("--") or key.isupper():  # an option, or a positional argument (SIZE, CLASS)
         return key
     return OPTIONS.get(key, "--" + key.replace("_", "-"))
 

@@ -62,8 +62,11 @@ def check_units(field: str, text: str, kind, units) -> None:
         rotation = [n for n in names if n in _ROTATION_UNITS]
         others_are_time = all(n in _ROTATION_UNITS or _dimension(n) == _dimension("second") for n in names)
         if len(rotation) != 1 or names[rotation[0]] != 1.0 or not others_are_time:
-            raise QuantityError(field, f"{text!r} is not a shaft speed: Hz on a nameplate is the supply frequency; "
-                                       "write revolutions, e.g. 1450 rpm, 1450 r/min or 24 rev/s")
+            if any("hertz" in n for n in names):
+                raise QuantityError(field, f"{text!r} is not a shaft speed: Hz on a nameplate is the supply frequency; "
+                                           "write revolutions, e.g. 1450 rpm, 1450 r/min or 24 rev/s")
+            raise QuantityError(field, f"{text!r} is not a speed unit: a shaft speed is revolutions per time; "
+                                       "write e.g. 1450 rpm, 1450 r/min or 24 rev/s")
     elif kind is TWIST_RATE:
         angle = [n for n in names if n in _ANGLE_UNITS]
         if len(angle) != 1 or names[angle[0]] != 1.0:

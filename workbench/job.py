@@ -346,12 +346,18 @@ def _evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict
     warnings = result.setdefault("warnings", [])
     for check in checks:
         warnings.extend(w for w in check.assumptions if w not in warnings)
+    if layout_in.as_bar and any(c.role == "candidate" and c.geometry.keyed for c in cases):
+        warnings.append(AS_BAR_KEYED_WARNING)
     result["layout"] = layout_dict(layout_in, checks[-1])
     result["moment_diagram"] = moment_diagram_dict(checks[-1], loads)
     from workbench.turning_job import attach_turning
 
     attach_turning(result, inputs)
     return result
+
+
+AS_BAR_KEYED_WARNING = ("--as-bar: the bar runs through square-bore units, no keyseat is cut; "
+                        "'keyed' ignored")
 
 
 def _finite(value: float) -> float | None:

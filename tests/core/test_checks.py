@@ -86,10 +86,12 @@ def test_equal_strength_square_for_a_round():
 
 def test_fit_facts_name_the_journal_limit():
     square = ShaftGeometry("square", 0.035)
-    assert largest_journal_m(square) == 0.035
-    assert largest_journal_m(ShaftGeometry("flat", 0.050, 0.020)) == 0.020
+    # turning rule (common practice): inscribed >= journal + 0.05 mm upper limit + max(1 mm, 2 % d):
+    # square 35 -> 35 - 0.05 - 1 = 33.95 mm; flat 50 x 20 -> 20 - 0.05 - 1 = 18.95 mm
+    assert largest_journal_m(square) == pytest.approx(0.03395, abs=1e-9)
+    assert largest_journal_m(ShaftGeometry("flat", 0.050, 0.020)) == pytest.approx(0.01895, abs=1e-9)
     facts = " ".join(fit_facts(ShaftGeometry("round", 0.040), square))
-    assert "journals up to 35 mm" in facts and "smaller than the existing" in facts
+    assert "journals up to 33.95 mm" in facts and "smaller than the existing" in facts
     assert "Square-bore" in facts
 
 

@@ -337,7 +337,9 @@ async def test_the_focused_fields_hint_is_in_the_title_line_at_80_columns(make_a
         assert "Power: kW, hp · bare = kW" in plain_text(title)
         await pilot.press("enter", "enter")
         await settle(pilot)
-        assert "Ratio: motor:shaft, e.g. 25:1" in plain_text(title)
+        from workbench.tui.fields import FIELD_BY_KEY
+
+        assert f"Ratio: {FIELD_BY_KEY['ratio'].hint}" in plain_text(title)
         ratio = app.job_screen.query_one("#ratio", Input)
         assert ratio.value == "" and ratio.placeholder.startswith("default")  # a default, not a value
 

@@ -10,6 +10,7 @@ the overhung moment is largest; keyseat and shoulder factors are applied there (
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, field
 
@@ -104,7 +105,11 @@ class ShaftCheck:
 
 def _feature_factors(section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float]:
     """(feature, Kt, Kts, Kf, Kfs) at the checked section; the worst present feature governs each."""
-    g = section.geometry
+    return _features_of(section.geometry, section.size_factor_diameter_m, tensile_Pa)
+
+
+@functools.lru_cache(maxsize=512)  # pure in the (frozen) geometry, its size-factor diameter and the steel
+def _features_of(g, d_m: float, tensile_Pa: float) -> tuple[str, float, float, float, float]:
     table = stress_raisers()
     present = []
     if g.keyed and g.profile in ("round", "tube"):
@@ -121,7 +126,6 @@ def _feature_factors(section: Section, tensile_Pa: float) -> tuple[str, float, f
         present.append(table["round-shoulder"])
     if not present:
         return "plain bar", 1.0, 1.0, 1.0, 1.0
-    d_m = section.size_factor_diameter_m
     sqrt_a_b = fatigue.neuber_sqrt_a_bending(tensile_Pa)
     sqrt_a_t = fatigue.neuber_sqrt_a_torsion(tensile_Pa)
     rows = []

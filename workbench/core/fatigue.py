@@ -7,6 +7,7 @@ the 10th ed., Eqs. 6-35a/b.
 
 from __future__ import annotations
 
+import functools
 import math
 
 MPA = 1.0e6
@@ -84,13 +85,13 @@ def marin_factors(finish: str, tensile_Pa: float, size_diameter_m: float, reliab
     kc = 1 because torsion and bending are combined by von Mises (Shigley 9th ed., Sec. 6-14);
     kd = 1 (room temperature).
     """
-    return {
-        "ka": surface_factor(finish, tensile_Pa),
-        "kb": size_factor(size_diameter_m),
-        "kc": 1.0,
-        "kd": 1.0,
-        "ke": reliability_factor(reliability),
-    }
+    ka, kb, ke = _marin(finish, tensile_Pa, size_diameter_m, reliability)
+    return {"ka": ka, "kb": kb, "kc": 1.0, "kd": 1.0, "ke": ke}  # a fresh dict: the caller may keep it
+
+
+@functools.lru_cache(maxsize=1024)  # pure; the steps of one shaft repeat it
+def _marin(finish: str, tensile_Pa: float, size_diameter_m: float, reliability: float) -> tuple[float, float, float]:
+    return surface_factor(finish, tensile_Pa), size_factor(size_diameter_m), reliability_factor(reliability)
 
 
 def endurance_limit_Pa(tensile_Pa: float, factors: dict[str, float]) -> float:

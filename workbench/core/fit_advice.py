@@ -48,6 +48,7 @@ class Recommendation:
     source: str
 
 
+@functools.lru_cache(maxsize=512)  # pure: a job asks the same few again on every keystroke
 def journal_class(diameter_m: float, *, mounting: str = "pressed", rotating: str = "inner",
                   load: str = "normal", roller: bool = False) -> Recommendation:
     """Shaft class for a bearing journal (common practice, see the module docstring)."""
@@ -71,6 +72,7 @@ def journal_class(diameter_m: float, *, mounting: str = "pressed", rotating: str
                           f"{kind} bearing, inner ring rotating, {load} load, {d_mm:g} mm", SOURCE_JOURNAL)
 
 
+@functools.lru_cache(maxsize=128)  # pure
 def seat_class(element: str, load: str = "normal") -> Recommendation:
     """Shaft class for a keyed hub seat (hub bored H7), by element; a heavy load one step tighter."""
     cls = _SEAT_FOR_ELEMENT.get(element, "k6")
@@ -149,9 +151,16 @@ def keyseat(shaft_diameter_m: float, key_width_m: float, shaft_depth_m: float, s
 
     DIN 6885-1: shaft width H9 / N9 / P9 (free / normal / tight), hub D10 / JS9 / P9; depth t1
     +0.1/+0.2/+0.3 mm, so the reading d - t1 may be that much less (and never more). ANSI B17.1:
-    width + tolerance / -0, depth +0.010 in.
+    width + tolerance / -0, depth +0.010 in; t1 is given at the side wall, so the reading across
+    the keyseat is S = d - Y - t1 with the chordal height Y = (d - sqrt(d^2 - b^2)) / 2.
     """
+    reading_depth = shaft_depth_m
     if standard == "ansi":
+        # B17.1 states t1 at the side wall; the reading across the seat is S = d - Y - t1, Y the
+        # chordal height of the seat's width (ANSI B17.1)
+        from workbench.core.keyseat_factors import side_wall_to_centre_depth_m
+
+        reading_depth = side_wall_to_centre_depth_m(shaft_diameter_m, key_width_m, shaft_depth_m)
         width_plus, depth_plus = ansi_tolerances_m(key_width_m)
         width_class, hub_class = "B17.1", "B17.1"
         width_max, width_min = key_width_m + width_plus, key_width_m
@@ -177,9 +186,11 @@ def keyseat(shaft_diameter_m: float, key_width_m: float, shaft_depth_m: float, s
         "hub_width_max_m": round(hub_max, 12),
         "hub_width_min_m": round(hub_min, 12),
         "shaft_depth_m": shaft_depth_m,
-        "depth_m": round(shaft_diameter_m - shaft_depth_m, 12),
+        "depth_m": round(shaft_diameter_m - reading_depth, 12),
         "depth_tolerance_m": depth_tol,
-        "depth_note": "micrometer reading across the keyseat, d - t1: may read up to the tolerance less, never more",
+        "depth_note": (f"micrometer reading across the keyseat, {'d - Y - t1 (t1 at the side wall)' if standard == 'ansi' else 'd - t1'}"
+                       ": may read up to the tolerance less, never more"),
+        "reading_rule": "d - Y - t1" if standard == "ansi" else "d - t1",
         "length_m": length_m,
         "source": source,
     }

@@ -8,6 +8,7 @@ else a transition fit. SI floats (m).
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 
 from workbench.core.iso286 import ToleranceError, Zone, limits
@@ -53,6 +54,7 @@ def parse_fit(text: str) -> tuple[str, str]:
     return hole.strip(), shaft.strip()
 
 
+@functools.lru_cache(maxsize=1024)  # pure table look-ups; Fit is frozen
 def fit(size_m: float, text: str) -> Fit:
     """The fit ``text`` (``H7/k6``) at nominal size ``size_m`` [m]. The first class must be a hole
     (upper-case letter) and the second a shaft (lower-case), as ISO writes a fit."""

@@ -23,7 +23,7 @@ from __future__ import annotations
 import csv
 import math
 from dataclasses import dataclass
-from functools import cache
+from functools import cache, lru_cache
 
 from workbench.core.geometry import ShaftGeometry
 
@@ -78,6 +78,26 @@ def side_wall_to_centre_depth_m(diameter_m: float, width_m: float, side_depth_m:
     return side_depth_m + r - math.sqrt(max(r * r - width_m * width_m / 4.0, 0.0))
 
 
+def centre_to_side_wall_depth_m(diameter_m: float, width_m: float, centre_depth_m: float) -> float:
+    """Keyseat depth at its side wall [m] from the depth at the centreline: the inverse of
+    :func:`side_wall_to_centre_depth_m` (ANSI B17.1 gives the depth at the side wall)."""
+    r = diameter_m / 2.0
+    return centre_depth_m - (r - math.sqrt(max(r * r - width_m * width_m / 4.0, 0.0)))
+
+
+def stated_depth_m(diameter_m: float, width_m: float, geometry_depth_m: float, table_depth_m: float,
+                    standard: str) -> float:
+    """The shaft keyseat depth t1 [m] as its standard states it, one rule for every spelling:
+    ANSI B17.1 at the side wall, DIN 6885-1 as listed. ``geometry_depth_m`` is a typed seat's
+    centreline depth (0 when the seat comes from the key table, whose ``table_depth_m`` is already
+    stated the standard's way)."""
+    if not geometry_depth_m:
+        return table_depth_m
+    if standard == "ansi":
+        return centre_to_side_wall_depth_m(diameter_m, width_m, geometry_depth_m)
+    return geometry_depth_m
+
+
 def standard_seat_m(diameter_m: float, standard: str) -> tuple[float, float] | None:
     """(width, centreline depth) [m] of the standard keyseat for the diameter, or None off the table."""
     from workbench.core.tables import key_for_diameter
@@ -102,6 +122,7 @@ def _nearest_standard(diameter_m: float, standard: str) -> tuple[float, float]:
     return seat[0] * scale, seat[1] * scale
 
 
+@lru_cache(maxsize=512)  # pure in the frozen geometry; a refusal is raised anew each time
 def read_keyseat(geometry: ShaftGeometry) -> KeyseatReading:
     """The keyseat of a keyed round or tube as it will be checked; raises KeyseatRefused."""
     g = geometry

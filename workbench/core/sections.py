@@ -9,6 +9,7 @@ Each value's method is recorded in ``methods`` so that every figure shown can be
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, field
 from functools import cache
@@ -127,6 +128,21 @@ def solved_section(geometry: ShaftGeometry) -> tuple[float, float, float, float,
 
 
 def section_for(geometry: ShaftGeometry, key=None) -> Section:
+    """Section properties for ``geometry`` (see :func:`_section_for`); the properties of a section met
+    before are remembered (the journals and shoulders of one shaft often share a diameter, and a
+    keystroke re-checks the same bars). Section is frozen and nobody changes its ``methods``."""
+    try:
+        return _remembered_section(geometry, key)
+    except TypeError:  # a key row that is not hashable: computed afresh
+        return _section_for(geometry, key)
+
+
+@functools.lru_cache(maxsize=1024)
+def _remembered_section(geometry: ShaftGeometry, key) -> Section:
+    return _section_for(geometry, key)
+
+
+def _section_for(geometry: ShaftGeometry, key=None) -> Section:
     """Section properties for ``geometry``.
 
     ``key`` is the keyseat size row (an object with ``width_m`` and ``shaft_depth_m``) for a keyed
@@ -164,7 +180,9 @@ def section_for(geometry: ShaftGeometry, key=None) -> Section:
         raise ValueError(f"unknown profile {g.profile!r}")
     if g.keyed and g.profile in ("round", "tube"):
         key_w = g.key_width_m or (key.width_m if key else 0.0)
-        key_d = g.key_depth_m or (key.shaft_depth_m if key else 0.0)
+        from workbench.core.keyseat_factors import stated_depth_m
+
+        key_d = stated_depth_m(g.size_m, key_w, g.key_depth_m, key.shaft_depth_m if key else 0.0, g.key_standard)
         area -= key_w * key_d
         methods["keyseat"] = ("nominal stress on the full diameter, keyseat by Kt/Kts (Shigley 9th ed., Table 7-1); "
                               "twist on the plain round, as a keyseat runs only under the hub")

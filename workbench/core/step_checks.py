@@ -17,6 +17,7 @@ bar already has.
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass, replace
 
 from workbench.core import fatigue
@@ -70,6 +71,7 @@ class StepCheck:
         return f"{label}, {size}"
 
 
+@functools.lru_cache(maxsize=256)  # pure in the (frozen) geometry
 def _keyseat_scale(geometry) -> float:
     """The factor on the handbook keyseat Kt/Kts for this seat (1 for a standard seat in a solid
     round or a sound tube wall); a seat the ligament rule refuses was refused when the spec was read."""
@@ -85,24 +87,31 @@ def _keyseat_scale(geometry) -> float:
 
 def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float, list[str]]:
     """(feature words, Kt, Kts, Kf, Kfs, notes) of a step; the larger of each where raisers meet."""
+    *figures, notes = _step_features(step.kind, step.keyed, step.geometry, step.diameter_m, step.larger_m,
+                                     step.fillet_m, step.larger_round, step.feature_word,
+                                     section.size_factor_diameter_m, tensile_Pa)
+    return (*figures, list(notes))
+
+
+@functools.lru_cache(maxsize=1024)  # pure in what it reads of the step; repeated steps and keystrokes find it
+def _step_features(kind: str, keyed: bool, g, diameter_m: float, larger_m: float, fillet_m: float,
+                   larger_round: bool, feature_word: str, d_m: float, tensile_Pa: float) -> tuple:
     table = stress_raisers()
     rows = []  # (name, Kt, Kts, notch radius)
     notes: list[str] = []
-    g = step.geometry
-    d_m = section.size_factor_diameter_m
-    if step.keyed and g.profile in ("round", "tube"):
+    if keyed and g.profile in ("round", "tube"):
         raiser = table["keyseat"]
         scale = _keyseat_scale(g)  # non-standard seat or thin tube wall (workbench.core.keyseat_factors)
         rows.append(("keyseat", raiser.Kt * scale, raiser.Kts * scale, raiser.notch_radius_per_d * d_m))
-    if step.kind == "shoulder" and step.larger_m > step.diameter_m * (1.0 + 1e-9):
-        factors = shoulder_factors(step.larger_m, step.diameter_m, step.fillet_m, body_round=step.larger_round)
-        rows.append(("shoulder", factors.Kt, factors.Kts, step.fillet_m))
+    if kind == "shoulder" and larger_m > diameter_m * (1.0 + 1e-9):
+        factors = shoulder_factors(larger_m, diameter_m, fillet_m, body_round=larger_round)
+        rows.append(("shoulder", factors.Kt, factors.Kts, fillet_m))
         notes.extend(f"shoulder {note}" if note.startswith(("bending", "torsion")) else note for note in factors.notes)
-    if step.feature_word in _WORDS:
-        raiser = table[_WORDS[step.feature_word]]
+    if feature_word in _WORDS:
+        raiser = table[_WORDS[feature_word]]
         rows.append((raiser.feature, raiser.Kt, raiser.Kts, raiser.notch_radius_per_d * d_m))
     if not rows:
-        return "plain bar", 1.0, 1.0, 1.0, 1.0, notes
+        return "plain bar", 1.0, 1.0, 1.0, 1.0, tuple(notes)
     sqrt_a_b = fatigue.neuber_sqrt_a_bending(tensile_Pa)
     sqrt_a_t = fatigue.neuber_sqrt_a_torsion(tensile_Pa)
     out = []
@@ -111,7 +120,7 @@ def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, flo
                     fatigue.fatigue_notch_factor(kts, radius, sqrt_a_t)))
     names = [row[0] for row in out]
     words = names[0] if len(names) == 1 else ", ".join(names[:-1]) + " and " + names[-1]
-    return (words, *(max(row[i] for row in out) for i in range(1, 5)), notes)
+    return (words, *(max(row[i] for row in out) for i in range(1, 5)), tuple(notes))
 
 
 def _section(step: Step, body_section: Section) -> Section:
@@ -180,12 +189,13 @@ def check_steps(
     if key is not None:
         # "no hub length" is already said by the layout's warning
         all_notes.extend(n for n in key.notes if not n.startswith("no hub length") and n not in all_notes)
+        assumptions.extend(n for n in key.notes if n.startswith("hub too short") and n not in assumptions)
     verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
                                              stiffness, loads.shaft_speed_rpm)
     methods = dict(base.methods)
     methods["steps"] = ("each step at its own moment and torque; shoulders by Peterson's SCF 3rd ed. Charts "
                         "3.10/3.12 fits; keyseat by Shigley 9th ed. Table 7-1; the weakest step governs")
-    return replace(
+    return _replaced(
         base,
         side_load_N=pull_design,
         bending_moment_Nm=gov.bending_moment_Nm,
@@ -215,6 +225,18 @@ def check_steps(
         placed=placed,
         side_loads=tuple(forces_design),
     )
+
+
+def _replaced(obj, **changes):
+    """A copy of the frozen dataclass ``obj`` with ``changes``: what ``dataclasses.replace`` gives for a
+    class with no ``__post_init__`` and no derived fields, without calling ``__init__`` field by field."""
+    fields = obj.__dict__
+    if not changes.keys() <= fields.keys():
+        raise TypeError(f"not fields of {type(obj).__name__}: {sorted(changes.keys() - fields.keys())}")
+    new = object.__new__(type(obj))
+    new.__dict__.update(fields)
+    new.__dict__.update(changes)
+    return new
 
 
 def _key(checks: list[StepCheck], placed: Placed, material: MaterialProps, torque_Nm: float,

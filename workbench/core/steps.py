@@ -141,8 +141,10 @@ def _check_turn(plan: StepPlan, d_m: float, field: str, what: str) -> None:
     if not can_turn(body, d_m):
         need = d_m + JOURNAL_UPPER_DEVIATION_M + clean_up_allowance_m(d_m)
         option = {"journal": "--journal", "seat": "--seat"}.get(field, f"--candidate-{what}")
-        raise LayoutError(field, f"a {body.profile} {body.size_m * 1000:g} mm bar cannot give a "
-                                 f"{d_m * 1000:g} mm {what}: it needs at least {need * 1000:.2f} mm inscribed "
+        across = " across flats" if body.profile == "hex" else ""
+        inscribed = " across flats" if body.profile == "hex" else " inscribed"
+        raise LayoutError(field, f"a {body.profile} {body.size_m * 1000:g} mm{across} bar cannot give a "
+                                 f"{d_m * 1000:g} mm {what}: it needs at least {need * 1000:.2f} mm{inscribed} "
                                  f"(upper limit + {clean_up_allowance_m(d_m) * 1000:g} mm clean-up); "
                                  f"give a smaller {option}, a larger bar, "
                                  "or --as-bar for square-bore bearings and hubs")

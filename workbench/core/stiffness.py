@@ -109,8 +109,12 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
     segments = beam_segments(steps, E_Pa, density_kg_m3)
     beam = beam_response([s[:3] for s in segments], (b1, b2), forces)
     element_x = [x for x, _ in forces]
-    deflections = tuple((x, beam.deflection_at(x)) for x in element_x)
-    slopes = (abs(beam.slope_at(b1)), abs(beam.slope_at(b2)))
+    # the shaft's own weight, added in the worse sense: the element loads' direction to gravity is
+    # not known, so |load response| + |weight response| (conservative)
+    own = _own_weight_beam(tuple(segments), (b1, b2))
+    deflections = tuple((x, math.copysign(abs(beam.deflection_at(x)) + abs(own.deflection_at(x)),
+                                          beam.deflection_at(x) or 1.0)) for x in element_x)
+    slopes = (abs(beam.slope_at(b1)) + abs(own.slope_at(b1)), abs(beam.slope_at(b2)) + abs(own.slope_at(b2)))
     kind = bearing_type or DEFAULT_BEARING_TYPE
     notes = []
     if bearing_type is None:
@@ -134,12 +138,35 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
         dunkerley_rpm=dunkerley,
         methods={
             "deflection": "double integration of M/EI over the steps, simple supports at the bearing centres "
-                          "(Shigley 9th ed. Sec. 4-4, 7-5)",
+                          "(Shigley 9th ed. Sec. 4-4, 7-5); the shaft's own weight lumped in "
+                          f"{OWN_WEIGHT_PIECES} pieces per segment, added in the worse sense",
             "slope_limit": "Shigley 9th ed. Table 7-2 (lower end of the range)",
             "critical_speed": "Rayleigh (upper) and Dunkerley (lower), the lower decides (Shigley 9th ed. Sec. 7-6)",
         },
         notes=tuple(notes),
     )
+
+
+OWN_WEIGHT_PIECES = 16
+"""Point loads per beam segment that stand for the shaft's own weight (midpoint rule: the end
+slope of a uniform simply supported shaft is within 0.1 % of wL^3/(24EI), Shigley 9th ed. Table
+A-9 case 7; tests/core/test_audit_fixes.py)."""
+GRAVITY_M_S2 = 9.80665
+
+
+@functools.lru_cache(maxsize=256)
+def _own_weight_beam(segments, supports):
+    """Beam response to the shaft's own weight alone [m, rad]: each segment's weight (mass per
+    length x g) as OWN_WEIGHT_PIECES equal point loads at the centres of equal pieces. It depends
+    on the geometry only, so it is found once per shaft."""
+    from workbench.core.beam import beam_response
+
+    loads = []
+    for x0, x1, _ei, mass_per_m in segments:
+        piece = (x1 - x0) / OWN_WEIGHT_PIECES
+        weight = mass_per_m * GRAVITY_M_S2 * piece
+        loads.extend((x0 + (k + 0.5) * piece, weight) for k in range(OWN_WEIGHT_PIECES))
+    return beam_response([seg[:3] for seg in segments], supports, loads)
 
 
 @functools.lru_cache(maxsize=256)
@@ -175,7 +202,10 @@ def key_figures(torque_Nm: float, seat: ShaftGeometry, key_row, hub_length_m: fl
     if key_row is None and not seat.key_width_m:
         return None
     width = seat.key_width_m or key_row.width_m
-    depth = seat.key_depth_m or key_row.shaft_depth_m
+    from workbench.core.keyseat_factors import stated_depth_m
+
+    depth = stated_depth_m(seat.size_m, width, seat.key_depth_m, key_row.shaft_depth_m if key_row else 0.0,
+                           seat.key_standard)
     height = key_row.height_m if key_row is not None and abs(key_row.width_m - width) < 1e-9 else 2.0 * depth
     if height <= depth:
         height = 2.0 * depth
@@ -186,9 +216,15 @@ def key_figures(torque_Nm: float, seat: ShaftGeometry, key_row, hub_length_m: fl
         # the required length does not depend on the length given; any valid length finds it
         probe = key_check(torque_Nm, seat.size_m, width, height, depth, 2.0 * width, KEY_END, key_yield_Pa,
                           shaft_yield_Pa, hub.yield_Pa, required_sf)
-        notes.append("no hub length: key safety factors not computed" if length is None else
-                     "the hub is not longer than the key is wide: no round-ended key fits")
-        return KeyFigures(None, None, probe.required_length_m, None, hub.name, probe.method, tuple(notes))
+        if length is None:
+            notes.append("no hub length: key safety factors not computed")
+            return KeyFigures(None, None, probe.required_length_m, None, hub.name, probe.method, tuple(notes))
+        # a round-ended key's bearing length l - b is nil or negative: it carries no torque, so
+        # both factors are 0 and the shaft fails (rule stated in the README)
+        notes.append(f"hub too short: the key needs at least {probe.required_length_m * 1e3:.0f} mm "
+                     f"(hub length {length * 1e3:.0f} mm is not longer than the {width * 1e3:.0f} mm key width, "
+                     f"so a round-ended key has no bearing length)")
+        return KeyFigures(0.0, 0.0, probe.required_length_m, length, hub.name, probe.method, tuple(notes))
     check = key_check(torque_Nm, seat.size_m, width, height, depth, length, KEY_END, key_yield_Pa,
                       shaft_yield_Pa, hub.yield_Pa, required_sf)
     return KeyFigures(check.shear_safety_factor, check.crush_safety_factor, check.required_length_m, length,
@@ -207,9 +243,9 @@ def layout_verdict(verdict: str, governing: str, why: str, required_sf: float, m
     """
     found = []
     if key is not None:
-        for name, n in (("key shear", key.shear_safety_factor), ("key crushing", key.crush_safety_factor)):
-            if n is None:
-                continue
+        pairs = [(name, n) for name, n in (("key shear", key.shear_safety_factor),
+                                            ("key crushing", key.crush_safety_factor)) if n is not None]
+        for name, n in sorted(pairs, key=lambda pair: pair[1])[:1]:  # the weaker check speaks
             if n < required_sf:
                 found.append(("fail", "key", f"{name} over the hub length: n = {n:.2f} is below the required "
                                              f"{required_sf:g} (the key needs {key.required_length_m * 1000:.0f} mm)"))

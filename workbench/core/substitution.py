@@ -83,28 +83,36 @@ def _equivalent(basis: str, geometry: ShaftGeometry, ref: Section) -> Equivalent
 
 
 def largest_journal_m(geometry: ShaftGeometry) -> float:
-    """Largest round journal [m] that can be turned on the bar: its inscribed circle.
-
-    Square: the side a; hex: the size across flats; flat: the thickness; round/tube: the diameter.
+    """Largest round journal [m] the bar gives, by the same turning rule the check uses
+    (:func:`workbench.core.steps.largest_turnable_journal_m`: inscribed size >= journal upper
+    limit + clean-up allowance, common practice). A round or tube runs at its own diameter (a
+    uniform shaft, nothing to turn); a square (side), hex (across flats) or flat (thickness) is
+    turned, so it gives less than its inscribed size.
     """
-    if geometry.profile == "flat":
-        return geometry.second_m
-    return geometry.size_m
+    from workbench.core.steps import largest_turnable_journal_m
+
+    if geometry.profile in ("round", "tube") and not geometry.flats:
+        return geometry.size_m
+    return largest_turnable_journal_m(geometry)
 
 
 def fit_facts(existing: ShaftGeometry, candidate: ShaftGeometry | None = None) -> list[str]:
     """Plain-language fit facts for a fitter replacing ``existing`` (with ``candidate`` if given)."""
+    from workbench.core.steps import JOURNAL_UPPER_DEVIATION_M, clean_up_allowance_m
+
     d_mm = existing.size_m * 1000.0
+    need_mm = (existing.size_m + JOURNAL_UPPER_DEVIATION_M + clean_up_allowance_m(existing.size_m)) * 1000.0
     facts = [
         "Equivalent sizes hold for the body (the bar's own section) only: turned to the existing journals "
         "and keyed seat, a bar is no stronger there than the shaft as found, and each shoulder adds a stress "
         "raiser. The check (shaftbench check --candidate ...) checks every step.",
         "A square, hex or flat bar turned to a round journal at the bearing seats is only as strong "
         "and stiff there as that journal: check the journal as a round shaft of its own diameter.",
-        "The largest journal a bar can give is its inscribed circle: the side of a square, the size "
-        "across flats of a hex, the thickness of a flat.",
-        f"To give journals of the existing {d_mm:g} mm, a square needs a side of at least {d_mm:g} mm "
-        f"and a hex at least {d_mm:g} mm across flats.",
+        "The largest journal a bar can give is its inscribed circle (the side of a square, the size "
+        "across flats of a hex, the thickness of a flat) less the journal's upper limit and a clean-up "
+        "allowance of max(1 mm, 2 % of the journal).",
+        f"To give journals of the existing {d_mm:g} mm, a square needs a side of at least {need_mm:.4g} mm "
+        f"and a hex at least {need_mm:.4g} mm across flats.",
         "Square-bore hubs and square-bore bearings take a square bar as it is, with no journal to turn "
         "and no keyseat.",
         "A keyseat in a round shaft raises the local stress (Kts about 3 in torsion for an end-mill "
@@ -113,7 +121,7 @@ def fit_facts(existing: ShaftGeometry, candidate: ShaftGeometry | None = None) -
     if candidate is not None and candidate.profile in ("square", "hex", "flat"):
         journal = largest_journal_m(candidate) * 1000.0
         facts.append(
-            f"The candidate {candidate.profile} gives journals up to {journal:g} mm"
+            f"The candidate {candidate.profile} gives journals up to {journal:.4g} mm"
             + (" — smaller than the existing shaft's diameter." if journal < d_mm - 1e-9 else ".")
         )
     return facts

@@ -329,9 +329,14 @@ def stock_sizes(profile: str | None = None, system: str | None = None) -> list[S
         raise ValueError(f"profile {profile!r} is not one of {', '.join(STOCK_PROFILES)}")
     if system is not None and system not in STOCK_SYSTEMS:
         raise ValueError(f"system {system!r} is not one of {', '.join(STOCK_SYSTEMS)}")
+    return list(_sorted_stock(profile, system))  # a fresh list: the caller may change it
+
+
+@functools.lru_cache(maxsize=64)  # the rack tables are read once (_stock); their sorted selections too
+def _sorted_stock(profile: str | None, system: str | None) -> tuple[StockSize, ...]:
     systems = STOCK_SYSTEMS if system is None else (system,)
     found = [s for sy in systems for s in _stock(sy) if profile is None or s.profile == profile]
-    return sorted(found, key=lambda s: (s.size_m, s.second_m, s.system, s.profile))
+    return tuple(sorted(found, key=lambda s: (s.size_m, s.second_m, s.system, s.profile)))
 
 
 # --------------------------------------------------------------------------- mounted elements

@@ -18,6 +18,7 @@ SI floats (m); no printing.
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 from typing import Mapping, Sequence
 
@@ -57,27 +58,36 @@ def _inch(value_m: float) -> float:
     return round(value_m / M_PER_IN, 4)
 
 
+@functools.lru_cache(maxsize=1024)  # pure in (size, class, kind): the journals of one shaft share them
+def _zone_fields(diameter: float, cls: str, kind: str) -> tuple:
+    """(class name, upper and lower deviation, max and min [m], max and min [in], Ra [um]) of a row."""
+    zone = limits(diameter, cls)
+    return (zone.name, zone.upper_deviation_m, zone.lower_deviation_m, round(zone.max_m, 12), round(zone.min_m, 12),
+            _inch(zone.max_m), _inch(zone.min_m), fit_advice.finish_Ra_um(zone.name, kind))
+
+
 def _row(step: Mapping, cls: str, reason: str, source: str) -> dict:
     diameter = float(step["diameter_m"])
-    zone = limits(diameter, cls)
+    kind = step["kind"]
+    name, upper, lower, max_m, min_m, max_in, min_in, ra = _zone_fields(diameter, cls, kind)
     x0, x1 = step.get("x_start_m"), step.get("x_end_m")
     return {
-        "step": step["kind"],
-        "label": step.get("label") or step["kind"],
+        "step": kind,
+        "label": step.get("label") or kind,
         "diameter_m": diameter,
-        "class": zone.name,
-        "upper_deviation_m": zone.upper_deviation_m,
-        "lower_deviation_m": zone.lower_deviation_m,
-        "max_m": round(zone.max_m, 12),
-        "min_m": round(zone.min_m, 12),
-        "max_in": _inch(zone.max_m),
-        "min_in": _inch(zone.min_m),
+        "class": name,
+        "upper_deviation_m": upper,
+        "lower_deviation_m": lower,
+        "max_m": max_m,
+        "min_m": min_m,
+        "max_in": max_in,
+        "min_in": min_in,
         "x_start_m": x0,
         "x_end_m": x1,
         "length_m": None if x0 is None or x1 is None or float(x1) <= float(x0) else round(float(x1) - float(x0), 12),
         "fillet_min_m": None,
         "fillet_max_m": None,
-        "finish_Ra_um": fit_advice.finish_Ra_um(zone.name, step["kind"]),
+        "finish_Ra_um": ra,
         "reason": reason,
         "source": source,
     }

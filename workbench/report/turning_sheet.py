@@ -70,7 +70,7 @@ def keyseat_lines(shaft: Mapping[str, Any]) -> list[str]:
         f"keyseat ({k['standard']}, {k['key_fit']} fit): width {size(k['key_width_m'])} {k['width_class']} = "
         f"{size(k['width_min_m'])} to {size(k['width_max_m'])}{length}; hub {k['hub_width_class']} "
         f"{size(k['hub_width_min_m'])} to {size(k['hub_width_max_m'])}",
-        f"micrometer over the keyseat (d - t1): {size(k['depth_m'])} +0 / -{size(k['depth_tolerance_m'])} "
+        f"micrometer over the keyseat ({k.get('reading_rule', 'd - t1')}): {size(k['depth_m'])} +0 / -{size(k['depth_tolerance_m'])} "
         f"(t1 = {size(k['shaft_depth_m'])})",
     ]
 

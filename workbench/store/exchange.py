@@ -69,7 +69,9 @@ def loads_guarded(text: str, what: str) -> Any:
     except RecursionError:
         raise LogError(f"{what} is nested too deeply to read") from None
     except ValueError as err:  # e.g. an integer of more than 4,300 digits
-        raise LogError(f"{what} holds a value that cannot be read ({' '.join(str(err).split())[:80]})") from None
+        from workbench.text_cut import cut_words
+
+        raise LogError(f"{what} holds a value that cannot be read ({cut_words(str(err), 80)})") from None
 
 
 def write_json(rows: Iterable[dict[str, Any]], out: IO[str]) -> int:
