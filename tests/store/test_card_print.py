@@ -120,7 +120,8 @@ def test_two_jobs_print_on_one_page_each(browser, tmp_path, paper):
 
     jobs = _jobs()
     pages = read_pdf(print_pdf(browser, cp.card_page(jobs, paper=paper), tmp_path))
-    per_job = [1 + len(sheet_shafts(job.result)) for job in jobs]  # the card, then a turning sheet per shaft
+    # the card, its steps page when a shaft has steps, then a turning sheet per shaft
+    per_job = [1 + any(s.get("steps") for s in job.result["shafts"]) + len(sheet_shafts(job.result)) for job in jobs]
     assert len(pages) == sum(per_job)
     _assert_printed_well(pages, paper)
     first, second = (_squash(pages[sum(per_job[:i])]["text"]) for i in range(len(jobs)))
@@ -137,7 +138,7 @@ def test_two_jobs_print_on_one_page_each(browser, tmp_path, paper):
 
 
 def test_a_section_on_its_own_page_follows_the_card(browser, tmp_path, monkeypatch):
-    monkeypatch.setattr(cp, "CARD_SECTIONS", [s for s in cp.CARD_SECTIONS if not s[0].startswith("turning-")])
+    monkeypatch.setattr(cp, "CARD_SECTIONS", [s for s in cp.CARD_SECTIONS if not s[0].startswith(("turning-", "steps"))])
     marker = "TURNING-SHEET-PAGE-MARKER"
     cp.add_section(
         "turning", lambda job: cp.PageSection("turning", "Turning sheet", f"<p>{marker}</p>", own_page=True)
@@ -156,10 +157,12 @@ def test_turning_sheets_print_one_page_per_shaft_after_the_card(browser, tmp_pat
 
     result = evaluate_inputs({**demo_inputs(), "bearing": "6208", "turning_sheets": "both"})
     pages = read_pdf(print_pdf(browser, cp.card_page([cp.CardJob(result, job_id=3)], paper=paper), tmp_path))
-    assert len(pages) == 3  # the card, then the existing and the candidate shaft's sheets
+    assert len(pages) == 4  # the card, the steps page, then the candidate's and the existing shaft's sheets
     _assert_printed_well(pages, paper)
-    card, *sheets = (_squash(p["text"]) for p in pages)
-    assert "Turningsheet" not in card
+    card, steps, *sheets = (_squash(p["text"]) for p in pages)
+    assert "Turningsheet" not in card and "Stepsoftheshafts" not in card
+    # issue 8: the card shows each shaft's steps table, the governing step marked
+    assert "Stepsoftheshafts" in steps and "◀" in steps and "shoulderatbearing1" in steps
     specs = {s["role"]: _squash(s["spec"]) for s in result["shafts"]}
     for sheet, role in zip(sheets, ("candidate", "existing")):  # the candidate's sheet first
         assert "Turningsheet" in sheet and f"{role}{specs[role]}" in sheet

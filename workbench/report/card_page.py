@@ -2,7 +2,7 @@
 
 A card is a list of :class:`PageSection` built in order by the builders in :data:`CARD_SECTIONS`
 (each takes a :class:`CardJob` and returns a section, or None to leave it out). To add a section -
-a steps table, a turning sheet - write a builder and register it with :func:`add_section`; a section
+a steps page, a turning sheet - write a builder and register it with :func:`add_section`; a section
 with ``own_page=True`` starts on a page of its own after the one-page card (a turning sheet), the
 others share the card's page. Every text a person typed is HTML-escaped; nothing is ever read as
 markup. Print rules (common practice for printable HTML, CSS Paged Media and Fragmentation):
@@ -201,6 +201,27 @@ def _shafts(job: CardJob) -> PageSection:
     return PageSection("shafts", "Shafts", table + whys + notes)
 
 
+def _steps(job: CardJob) -> PageSection | None:
+    """Each shaft as its steps (the governing one marked ◀) and its whole-shaft checks (key,
+    critical speed, deflection, slopes); None when no shaft has steps (report/steps.py, shared with
+    the report and the workbench)."""
+    from workbench.report.steps import shaft_checks, step_columns, steps_of, steps_rows
+
+    parts = []
+    for shaft in (s for s in (job.result.get("shafts") or []) if isinstance(s, Mapping)):
+        if not steps_of(shaft):
+            continue
+        parts.append(f"<p><b>{esc(shaft.get('role', 'shaft'))}: {esc(shaft.get('spec', ''))}</b></p>")
+        parts.append(grid(step_columns(), steps_rows(shaft)))
+        checks = shaft_checks(shaft)
+        if checks:
+            parts.append("<p>" + esc(" · ".join(f"{label}: {value}" for label, value in checks)) + "</p>")
+    if not parts:
+        return None
+    # a page of its own after the card (before the turning sheets): the card stays one page
+    return PageSection("steps", "Steps of the shafts (◀ the governing step)", "".join(parts), own_page=True)
+
+
 def _verdict(job: CardJob) -> PageSection:
     from workbench.report.jobcard import deciding_shaft, number
 
@@ -258,6 +279,7 @@ CARD_SECTIONS: list[tuple[str, SectionBuilder]] = [
     ("drive", _drive),
     ("mount", _mount),
     ("shafts", _shafts),
+    ("steps", _steps),
     ("verdict", _verdict),
     ("outcome", _outcome),
     ("notes", _notes),

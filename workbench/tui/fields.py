@@ -22,6 +22,10 @@ BEARING_TYPES = ("deep-groove-ball", "cylindrical-roller", "tapered-roller", "sp
 ELEMENT_POSITIONS = ("overhung", "between")
 DRIVEN_POSITIONS = ("none", "between", "far-end")
 YES_NO = ("no", "yes")
+#: the driven machine's duty (load class x hours a day, data/service_factors.csv via workbench.duty),
+#: "not given" first; a test parses every entry with workbench.duty (not imported here: start-up)
+DUTIES = ("not given", *(f"{load} {hours}h" for load in ("uniform", "moderate", "heavy", "extreme")
+                         for hours in ("1/2", "3", "10", "24")))
 #: hub materials of data/hub_materials.csv, the default (steel) first; kept equal by a test
 HUB_MATERIALS = ("steel", "steel-s355", "steel-1045", "ductile-iron-400", "ductile-iron-500",
                  "ductile-iron-600", "cast-iron-200", "cast-iron-250", "cast-iron-astm30")
@@ -68,7 +72,8 @@ SECTIONS: tuple[SectionSpec, ...] = (
             FieldSpec("speed", "Speed", "rpm, rev/s · bare = rpm", placeholder="e.g. 1460"),
             FieldSpec("ratio", "Ratio", "motor:shaft, e.g. 25:1", placeholder="default 1"),
             FieldSpec("efficiency", "Efficiency", "0.95 or 95%", placeholder="default 1"),
-            FieldSpec("service_factor", "Service factor", "duty of the machine", placeholder="default 1"),
+            FieldSpec("service_factor", "Service factor", "overrides Duty", placeholder="default 1"),
+            FieldSpec("duty", "Duty", "u m h e · load, h/day", choices=DUTIES),
             FieldSpec("peak_factor", "Start torque ×", "× running torque", placeholder="default 2"),
             FieldSpec("torque", "or Torque", "instead of power+speed", placeholder="N·m, lbf·in"),
         ),
@@ -131,7 +136,8 @@ ERROR_TARGET = {"shaft": "shaft_size", "candidate": "candidate_size"}
 #: choice fields whose first entry is the contract default: left out of the inputs when unchanged
 CHOICE_DEFAULTS = {"mount": "coupling", "criterion": "goodman", "bearing_type": BEARING_TYPES[0],
                    "element_position": ELEMENT_POSITIONS[0], "hub_material": HUB_MATERIALS[0],
-                   "as_bar": YES_NO[0], "driven_position": DRIVEN_POSITIONS[0]}
+                   "as_bar": YES_NO[0], "driven_position": DRIVEN_POSITIONS[0],
+                   "duty": DUTIES[0]}
 
 #: layout fields shown (and sent) only for some picks of another field; hidden rows are skipped
 #: by Tab, so the standard job costs no keys for them
