@@ -37,11 +37,11 @@ async def test_sheet_typed_ahead_at_full_speed_fills_every_field(make_app):
     async with app.run_test(size=(80, 24)) as pilot:
         await settle(pilot)
         sheet = app.job_screen.sheet
-        burst(app, "7.5⏎1450⏎5⏎0.95⏎1.25⏎2.5⏎⏎v⏎200⏎60⏎⏎40⏎k⏎g⏎1045-cd⏎s⏎36⏎")
+        burst(app, "7.5⏎1450⏎5⏎0.95⏎1.25⏎h⏎2.5⏎⏎v⏎200⏎60⏎⏎40⏎k⏎g⏎1045-cd⏎s⏎36⏎")
         await settle(pilot)
         expected = {
             "power": "7.5", "speed": "1450", "ratio": "5", "efficiency": "0.95",
-            "service_factor": "1.25", "peak_factor": "2.5", "torque": "", "mount": "vbelt",
+            "service_factor": "1.25", "duty": "heavy 1/2h", "peak_factor": "2.5", "torque": "", "mount": "vbelt",
             "pitch_diameter": "200", "overhang": "60", "shaft_profile": "round",
             "shaft_size": "40", "shaft_keyseat": "keyed", "shaft_finish": "ground",
             "material": "1045-cd", "candidate_profile": "square", "candidate_size": "36",
