@@ -207,7 +207,7 @@ def check_shaft(
     Stresses: tau = T (tau/T) of the section; sigma_b = M / Z (rotating, worst orientation).
     Combined nominal stresses at design torque: von Mises sqrt(s^2 + 3 t^2), Tresca sqrt(s^2 + 4 t^2)
     (Shigley 9th ed., Sec. 5-4/5-5). Fatigue: Shigley 9th ed., Eqs. 7-5..7-14 with Se of Eq. 6-18.
-    Static: first-cycle yield at peak torque, n = Sy / sigma'_max (Eqs. 7-15, 7-16), and shear
+    Static: first-cycle yield at the static torque (larger of peak and design), n = Sy / sigma'_max (Eqs. 7-15, 7-16), and shear
     yield n = 0.577 Sy / (Kfs tau_peak). Twist rate theta' = T / (G J) [rad/m] at design torque.
     Verdict: fail if the lowest of the static and fatigue factors is below ``required_sf``;
     marginal if it is within 10 % above it, or the twist rate exceeds its limit; pass otherwise.
@@ -236,7 +236,7 @@ def check_shaft(
         methods["buckling"] = ("thin tube, torsional buckling: long-tube elastic stress x 0.67 knock-down "
                                "(Timoshenko & Gere 2nd ed. Sec. 11.10; NASA SP-8007; from memory)")
     methods["fatigue"] = f"{fatigue.CRITERIA[settings.criterion]}, Shigley 9th ed. Eqs. 7-5..7-14; Se by Eq. 6-18"
-    methods["static"] = "first-cycle yield at peak torque, Shigley 9th ed. Eqs. 7-15/7-16"
+    methods["static"] = "first-cycle yield at the larger of peak and design torque, Shigley 9th ed. Eqs. 7-15/7-16"
     methods["twist"] = "theta = T/(G J) at design torque; limit " + (
         "as given" if settings.twist_limit_deg_per_m else "1 deg over 20 diameters (common practice)"
     )

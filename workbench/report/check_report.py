@@ -58,7 +58,7 @@ ROWS = (
     ("von Mises / Tresca", lambda s, u: f"{fmt.stress(s['von_mises_stress_Pa'], u)} / {fmt.stress(s['tresca_stress_Pa'], u)}"),
     ("endurance limit Se", lambda s, u: fmt.stress(s["endurance_limit_Pa"], u)),
     ("Kf / Kfs", lambda s, u: f"{s['Kf']:.2f} / {s['Kfs']:.2f} ({s['feature']})"),
-    ("static SF (peak)", lambda s, u: fmt.factor(s["static_safety_factor"])),
+    ("static SF", lambda s, u: fmt.factor(s["static_safety_factor"])),
     ("fatigue SF", lambda s, u: f"{fmt.factor(s['fatigue_safety_factor'])} {s['fatigue_criterion']}"),
     ("twist", lambda s, u: f"{fmt.twist(s['twist_deg_per_m'], u)} (limit {fmt.twist(s['twist_limit_deg_per_m'], u)})"),
     ("mass", lambda s, u: fmt.mass_per_length(s["mass_kg_per_m"], u)),
