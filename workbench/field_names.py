@@ -6,6 +6,8 @@ workbench, never the internal key (``pitch_diameter``). Both sides use these two
 
 from __future__ import annotations
 
+import re
+
 OPTIONS = {
     "power": "--power", "speed": "--speed", "torque": "--torque", "ratio": "--ratio",
     "efficiency": "--efficiency", "service_factor": "--service-factor", "duty": "--duty",
@@ -41,14 +43,19 @@ def label_for(key: str) -> str:
 _BY_OPTION = {option: key for key, option in OPTIONS.items()}
 
 
+_OPTION_WORD = re.compile(r"(?<![\w-])--([a-z][a-z0-9]*(?:-[a-z0-9]+)*)")
+
+
 def warning_for_workbench(line: str) -> str:
-    """A job warning as the workbench shows it: the leading ``--option:`` becomes the field label
-    (``--overhang: ...`` -> ``Overhang: ...``); a line without one is left as it is."""
-    option, sep, rest = line.partition(": ")
-    if sep and option.startswith("--"):
-        key = _BY_OPTION.get(option, option[2:].replace("-", "_"))
-        return f"{label_for(key)}: {rest}"
-    return line
+    """A job warning as the workbench shows it: every ``--option`` becomes its field label
+    (``--overhang: ...`` -> ``Overhang: ...``, ``give --duty or --service-factor`` -> ``give Duty
+    or Service factor``); a line without one is left as it is."""
+
+    def label(match: re.Match[str]) -> str:
+        option = match.group(0)
+        return label_for(_BY_OPTION.get(option, option[2:].replace("-", "_")))
+
+    return _OPTION_WORD.sub(label, line)
 
 
 def workbench_warning_lines(result: dict) -> list[str]:
