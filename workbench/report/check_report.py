@@ -2,7 +2,6 @@
 
 from __future__ import annotations
 
-import math
 
 from rich.console import Group
 from rich.panel import Panel
@@ -209,14 +208,6 @@ def render_substitution(result: dict, system: str = "metric") -> Group:
 
 
 
-def _largest_journal_text(journal_m: float | None, system: str) -> str:
-    """The largest journal a bar gives, rounded DOWN (0.01 mm / 0.0001 in): it is an upper limit."""
-    if journal_m is None:
-        return "—"
-    if system == "inch":
-        return f"{math.floor(journal_m / 0.0254 * 1e4 + 1e-6) / 1e4:.4f} in"
-    return f"{math.floor(journal_m * 1e5 + 1e-6) / 100:.2f} mm"
-
 def render_stock(result: dict, system: str = "metric") -> Group:
     """Stock sizes checked as the candidate, smallest first, with the smallest that passes."""
     across = " (sizes across flats)" if result["profile"] == "hex" else ""
@@ -224,7 +215,7 @@ def render_stock(result: dict, system: str = "metric") -> Group:
     for name in ("size", "material", "verdict", "lowest SF", "governing", "mass", "journal"):
         table.add_column(name)
     for row in result["rows"]:
-        journal = _largest_journal_text(row["largest_journal_m"], system)
+        journal = fmt.journal_limit(row["largest_journal_m"], system)
         if row["gives_existing_journal"] is False:
             journal += " *"
         governing = row["governing"] + (f" at {row['governing_step_label']}" if row.get("governing_step_label") else "")

@@ -33,6 +33,15 @@ def number(value: float | None, digits: int = 3) -> str:
     return f"{value:.{decimals}f}"
 
 
+def journal_limit(journal_m: float | None, system: str) -> str:
+    """The largest journal a bar gives, rounded DOWN (0.01 mm / 0.0001 in): it is an upper limit."""
+    if journal_m is None:
+        return "—"
+    if system == "inch":
+        return f"{math.floor(journal_m / 0.0254 * 1e4 + 1e-6) / 1e4:.4f} in"
+    return f"{math.floor(journal_m * 1e5 + 1e-6) / 100:.2f} mm"
+
+
 def torque(torque_Nm: float | None, system: str) -> str:
     """Torque as ``N·m`` (metric) or ``lbf·in`` (inch)."""
     if torque_Nm is None:

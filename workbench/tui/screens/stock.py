@@ -108,7 +108,7 @@ class StockScreen(Screen[dict[str, str] | None]):
                 display.verdict(row.get("verdict")),
                 Text(row.get("governing") or "—"),
                 display.mass_per_length(row.get("mass_kg_per_m"), self.system),
-                display.length(row.get("journal_m"), self.system) + (" *" if row.get("journal_short") else ""),
+                display.journal_limit(row.get("journal_m"), self.system) + (" *" if row.get("journal_short") else ""),
             )
         first_pass = next((i for i, r in enumerate(rows) if r.get("verdict") == "pass"), 0)
         if rows:
