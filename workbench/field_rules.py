@@ -21,6 +21,12 @@ The rules (ours, stated):
 
 from __future__ import annotations
 
+import re
+
+from workbench.duty import SHAFT_FLOOR, duty_service_factor
+from workbench.readings import note
+from workbench.units import QuantityError, parse_number
+
 _ANGLE_UNITS = {"radian", "degree", "arcminute", "arcsecond", "turn", "revolution", "grade", "gradian"}
 _ROTATION_UNITS = {"revolutions_per_minute", "revolutions_per_second", "radian", "degree", "turn", "revolution"}
 _LOG_MARKERS = ("decibel", "bel", "neper", "octave", "decade")
@@ -88,10 +94,6 @@ def parse_ratio(field: str, text: str) -> float:
     (shaft 1.4x motor speed, fans). A slash (``1/25``, ``25/1``) is refused: a fitter may mean
     either direction. A plain number below 1 is read as a speed-up and said so in the warnings.
     """
-    import re
-
-    from workbench.units import QuantityError, parse_number
-
     text = text.strip()
     if not text:
         return 1.0
@@ -109,8 +111,6 @@ def parse_ratio(field: str, text: str) -> float:
             raise QuantityError(field, f"{text!r}: write one motor:shaft pair, e.g. 25:1")
         ratio = parse_number(field, text)
         if 0 < ratio < 1:
-            from workbench.readings import note
-
             note(field, f"{text!r} read as a speed-up: the shaft turns {1 / ratio:.3g}x motor speed "
                         f"(ratio = motor / shaft speed); write 1:{1 / ratio:.3g} to say so")
     if not MIN_RATIO <= ratio <= MAX_RATIO:
@@ -121,8 +121,6 @@ def parse_ratio(field: str, text: str) -> float:
 
 def question_speeds(motor_rpm: float | None, ratio: float) -> None:
     """Warn (not refuse) where the motor or the shaft would turn faster than any motor's speed."""
-    from workbench.readings import note
-
     if motor_rpm is None:
         return
     if motor_rpm > QUESTIONED_SPEED_RPM:
@@ -138,10 +136,6 @@ def service_factor_for_shaft(service_text: str, duty_text: str) -> float:
     """The service factor for the shaft's strength check: ``--service-factor`` if given (it
     overrides ``--duty``), else the duty's table factor, else 1.0 assumed (said in the warnings);
     never below 1.0 (the floor for a shaft; a lower value is raised and said so)."""
-    from workbench.duty import SHAFT_FLOOR, duty_service_factor
-    from workbench.readings import note
-    from workbench.units import QuantityError, parse_number
-
     if service_text:
         value = parse_number("service_factor", service_text)
         if not 0 < value <= 5.0:

@@ -7,6 +7,7 @@ dicts are documented in DEVELOPERS.md ("The job contract") and are stable.
 from __future__ import annotations
 
 import math
+import re
 from typing import Mapping
 
 from workbench import __version__
@@ -17,11 +18,16 @@ from workbench.core.evaluate import ShaftCase, evaluate
 from workbench.core.fatigue import CRITERIA
 from workbench.core.loads import Mount
 from workbench.core.tables import material, material_for_size, materials, mount_factors
+from workbench.core.keyseat_factors import KeyseatRefused, read_keyseat
 from workbench.core.layout import LayoutError
+from workbench.core.material_names import designation, grade_keys, nearest_names, reading_note
 from workbench.job_layout import layout_dict, moment_diagram_dict, parse_layout, step_fields, with_plans
 from workbench.field_names import option_for
+from workbench.field_rules import parse_ratio, question_speeds, service_factor_for_shaft
 from workbench.readings import collecting, note
+from workbench.spec_rules import question_hex, question_inch_job
 from workbench.specs import parse_spec
+from workbench.turning_job import attach_turning
 from workbench.units import (
     DENSITY,
     POWER,
@@ -90,8 +96,6 @@ def parse_material(field: str, text: str, size_m: float) -> MaterialProps:
     by a common designation (``EN19``, ``C45``, ``1045``: see ``data/material_names.csv``; the
     shaft's notes say how it was read), or typed in:
     ``custom Sy=350MPa Sut=600MPa [E=207GPa G=79.3GPa rho=7850]``."""
-    from workbench.core.material_names import designation, grade_keys, nearest_names
-
     text = text.strip()
     if text.lower().startswith("custom"):
         return _custom_material(field, text)
@@ -179,8 +183,6 @@ def _mount(inputs: Mapping[str, str]) -> Mount:
     between = (_given(inputs, "element_position").lower() == "between")
     if not oh_text and not between:
         raise QuantityError("overhang", f"is needed for a {element}: bearing to load line (e.g. 60 mm)")
-    from workbench.spec_rules import question_inch_job
-
     question_inch_job("pitch_diameter", pd_text, inputs)
     question_inch_job("overhang", oh_text, inputs)
     pitch = parse_quantity("pitch_diameter", pd_text, LENGTH, "mm", low=5e-3, high=3.0)
@@ -191,8 +193,6 @@ def _mount(inputs: Mapping[str, str]) -> Mount:
 def _drive(inputs: Mapping[str, str]):
     torque_text = _given(inputs, "torque")
     power_text, speed_text = _given(inputs, "power"), _given(inputs, "speed")
-    from workbench.field_rules import parse_ratio, question_speeds, service_factor_for_shaft
-
     ratio = parse_ratio("ratio", _given(inputs, "ratio"))
     efficiency = _fraction(inputs, "efficiency", 1.0, 0.3, 1.0)
     service = service_factor_for_shaft(_given(inputs, "service_factor"), _given(inputs, "duty"))
@@ -231,9 +231,6 @@ def _settings(inputs: Mapping[str, str]) -> Settings:
 def check_spec_reading(key: str, spec: str, geometry, inputs: Mapping[str, str]) -> None:
     """Refuse a keyseat that cannot be checked; warn on bare numbers in an inch job and on a hex
     size that reads like an across-corners measurement (workbench.spec_rules)."""
-    from workbench.core.keyseat_factors import KeyseatRefused, read_keyseat
-    from workbench.spec_rules import question_hex, question_inch_job
-
     if geometry.keyed and geometry.profile in ("round", "tube"):
         try:
             reading = read_keyseat(geometry)
@@ -350,8 +347,6 @@ def _evaluate_inputs(inputs: Mapping[str, str], *, solver: bool = False) -> dict
         warnings.append(AS_BAR_KEYED_WARNING)
     result["layout"] = layout_dict(layout_in, checks[-1])
     result["moment_diagram"] = moment_diagram_dict(checks[-1], loads)
-    from workbench.turning_job import attach_turning
-
     attach_turning(result, inputs)
     return result
 
@@ -452,8 +447,6 @@ def _modulus(case: ShaftCase) -> float:
 
 def _size_ranged_grade(key: str) -> str:
     """``c45-qt`` for a size-ranged row key ``c45-qt-16-40``; "" for any other key."""
-    import re
-
     if key not in materials() or materials()[key].size_max_m is None:
         return ""
     match = re.fullmatch(r"(.+)-\d+(?:\.\d+)?-\d+(?:\.\d+)?", key)
@@ -463,8 +456,6 @@ def _size_ranged_grade(key: str) -> str:
 def _reading_notes(case: ShaftCase, inputs: Mapping[str, str]) -> list[str]:
     """How a material designation (EN19, C45…) typed for this shaft was read, if one was; and
     the size-range row picked when the one typed is for another bar size."""
-    from workbench.core.material_names import reading_note
-
     text = _given(inputs, "material") or DEFAULT_MATERIAL
     if case.role == "candidate":
         text = _given(inputs, "candidate_material") or text

@@ -23,7 +23,8 @@ import math
 from dataclasses import dataclass, replace
 from typing import Mapping
 
-from workbench.core.layout import DRIVEN_POSITIONS, POSITIONS, DrivenElement, Layout
+from workbench.core.layout import DRIVEN_POSITIONS, POSITIONS, DrivenElement, Layout, moment_diagram
+from workbench.core.stiffness import DEFAULT_BEARING_TYPE
 from workbench.core.steps import StepPlan, inscribed_m
 from workbench.units import FORCE, LENGTH, MASS, QuantityError, parse_quantity
 
@@ -214,8 +215,6 @@ def step_fields(check) -> dict:
 def layout_dict(layout_in: LayoutInputs, check) -> dict:
     """The resolved layout (defaults filled in) as placed for the last shaft checked."""
     lay = layout_in.layout
-    from workbench.core.stiffness import DEFAULT_BEARING_TYPE
-
     out = {
         "element_position": lay.position,
         "overhang_m": lay.overhang_m,
@@ -240,8 +239,6 @@ def layout_dict(layout_in: LayoutInputs, check) -> dict:
 
 def moment_diagram_dict(check, loads) -> dict:
     """x, bending moment (design level) and torque along the shaft of the last shaft checked."""
-    from workbench.core.layout import moment_diagram
-
     placed = getattr(check, "placed", None)
     if placed is None:
         return {"x_m": [], "moment_Nm": [], "torque_Nm": []}

@@ -12,6 +12,8 @@ from contextlib import contextmanager
 from contextvars import ContextVar
 from typing import Iterator
 
+from workbench.field_names import option_for
+
 _current: ContextVar[list[str] | None] = ContextVar("shaftbench_readings", default=None)
 
 
@@ -20,8 +22,6 @@ def note(field: str, text: str) -> None:
     notes = _current.get()
     if notes is None:
         return
-    from workbench.field_names import option_for
-
     line = f"{option_for(field)}: {text}"
     if line not in notes:
         notes.append(line)

@@ -13,7 +13,9 @@ import math
 import re
 from typing import Mapping
 
+from workbench.core.tables import stock_sizes
 from workbench.readings import note
+from workbench.specs import _WORD_RE
 
 _INCH = re.compile(r"(\d\s*(in|inch|inches)\b|\"|″|'')", re.I)
 _LENGTH_KEYS = ("pitch_diameter", "overhang", "shaft", "candidate")
@@ -28,8 +30,6 @@ def _size_part(key: str, text: str) -> str:
     """The size of a spec (after the profile word, before the words), or the whole length entry."""
     if key not in ("shaft", "candidate"):
         return text
-    from workbench.specs import _WORD_RE
-
     _, _, rest = " ".join(text.split()).partition(" ")
     match = _WORD_RE.search(" " + rest)
     return (" " + rest)[: match.start()].strip() if match else rest.strip()
@@ -54,8 +54,6 @@ def question_inch_job(key: str, text: str, inputs: Mapping[str, str]) -> None:
 
 def question_hex(key: str, geometry) -> None:
     """Warn when a hex size looks like an across-corners measurement (see the module docstring)."""
-    from workbench.core.tables import stock_sizes
-
     system = "inch" if geometry.key_standard == "ansi" else "metric"
     sizes = [s.size_m for s in stock_sizes("hex", system)]
     if not sizes:

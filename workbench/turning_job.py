@@ -14,6 +14,14 @@ from __future__ import annotations
 import functools
 from typing import Mapping
 
+from workbench.core.bearings import BearingError, bearing
+from workbench.core.fit_advice import KEY_FITS, LOADS, MOUNTINGS, ROTATING_RINGS
+from workbench.core.iso286 import ToleranceError, parse_class
+from workbench.core.stress_raisers import stress_raisers
+from workbench.core.tables import key_for_diameter
+from workbench.core.turning import TurningOptions, turning_sheet, uniform_steps
+from workbench.units import LENGTH, QuantityError, parse_quantity
+
 TURNING_KEYS = ("bearing", "bearing_mounting", "rotating_ring", "bearing_load", "journal_class", "seat_class",
                 "key_fit", "turning_sheets")
 SHEET_CHOICES = ("candidate", "existing", "both")
@@ -22,37 +30,36 @@ _MOUNTING_ALIASES = {"press": "pressed", "pressed-on": "pressed", "cylindrical":
                      "eccentric-collar": "insert", "collar": "insert", "insert-unit": "insert"}
 
 
+def _input_error(field: str, message: str) -> Exception:
+    """The job contract's JobInputError (imported here, at the error: workbench.job imports this module)."""
+    from workbench.job import JobInputError
+
+    return JobInputError(field, message)
+
+
 def _given(inputs: Mapping[str, str], key: str) -> str:
     value = inputs.get(key)
     return "" if value is None else str(value).strip()
 
 
 def _choice(inputs, key, choices, default, aliases=None) -> str:
-    from workbench.job import JobInputError
-
     text = _given(inputs, key).lower()
     if not text:
         return default
     text = (aliases or {}).get(text, text)
     if text not in choices:
-        raise JobInputError(key, f"unknown {text!r}; expected one of {', '.join(choices)}")
+        raise _input_error(key, f"unknown {text!r}; expected one of {', '.join(choices)}")
     return text
 
 
 def turning_options(inputs: Mapping[str, str], element: str):
     """TurningOptions from the typed inputs; raises JobInputError naming the field."""
-    from workbench.core.bearings import BearingError, bearing
-    from workbench.core.fit_advice import KEY_FITS, LOADS, MOUNTINGS, ROTATING_RINGS
-    from workbench.core.iso286 import ToleranceError, parse_class
-    from workbench.core.turning import TurningOptions
-    from workbench.job import JobInputError
-
     b = None
     if _given(inputs, "bearing"):
         try:
             b = bearing(_given(inputs, "bearing"))
         except BearingError as err:
-            raise JobInputError("bearing", str(err)) from None
+            raise _input_error("bearing", str(err)) from None
     classes = {}
     for key in ("journal_class", "seat_class"):
         text = _given(inputs, key)
@@ -62,18 +69,16 @@ def turning_options(inputs: Mapping[str, str], element: str):
         try:
             letters, grade, is_hole = parse_class(text)
         except ToleranceError as err:
-            raise JobInputError(key, str(err)) from None
+            raise _input_error(key, str(err)) from None
         if is_hole:
-            raise JobInputError(key, f"{text!r} is a hole class; give the shaft's class in lower case, e.g. k6")
+            raise _input_error(key, f"{text!r} is a hole class; give the shaft's class in lower case, e.g. k6")
         classes[key] = f"{letters}{grade}"
     hub_length = None
     if _given(inputs, "hub_length"):
-        from workbench.units import LENGTH, QuantityError, parse_quantity
-
         try:
             hub_length = parse_quantity("hub_length", _given(inputs, "hub_length"), LENGTH, "mm")
         except QuantityError as err:
-            raise JobInputError(err.field, err.message) from None
+            raise _input_error(err.field, err.message) from None
     mounting = _choice(inputs, "bearing_mounting", MOUNTINGS, "pressed", _MOUNTING_ALIASES)
     if b is not None and b.tapered_bore and not _given(inputs, "bearing_mounting"):
         mounting = "adapter-sleeve"
@@ -99,8 +104,6 @@ def _turned_size_m(shaft: Mapping) -> float:
 def _assumed_fillet_m(shaft: Mapping, diameter_m: float) -> float:
     """The fillet radius the strength check assumed at a shoulder typed in the spec (r/d of
     data/stress_raisers.csv: sharp 0.02, rounded 0.1); 0 where the spec names no shoulder."""
-    from workbench.core.stress_raisers import stress_raisers
-
     word = {"sharp": "sharp-shoulder", "rounded": "round-shoulder"}.get(shaft.get("shoulder") or "none")
     return 0.0 if word is None else stress_raisers()[word].notch_radius_per_d * diameter_m
 
@@ -109,10 +112,6 @@ def attach_turning(result: dict, inputs: Mapping[str, str]) -> None:
     """Give each shaft of ``result`` its ``turning`` rows and ``keyseat`` (None when not keyed),
     plus ``turning_sheet`` (bearing, notes, options); sets ``result["turning_sheets"]``.
     Raises JobInputError naming the field (a class not defined at a step's size)."""
-    from workbench.core.iso286 import ToleranceError
-    from workbench.core.turning import turning_sheet, uniform_steps
-    from workbench.job import JobInputError
-
     options = turning_options(inputs, result["mount"]["element"])
     result["turning_sheets"] = sheets_wanted(inputs)
     for shaft in result["shafts"]:
@@ -126,7 +125,7 @@ def attach_turning(result: dict, inputs: Mapping[str, str]) -> None:
             sheet = turning_sheet(steps, options, key=key, key_standard=standard)
         except ToleranceError as err:
             field = "journal_class" if options.journal_class else "seat_class" if options.seat_class else "shaft"
-            raise JobInputError(field, str(err)) from None
+            raise _input_error(field, str(err)) from None
         shaft["turning"] = sheet["rows"]
         shaft["keyseat"] = sheet["keyseat"]
         shaft["turning_sheet"] = {"bearing": sheet["bearing"], "notes": sheet["notes"], "options": sheet["options"]}
@@ -136,8 +135,6 @@ def _key_for(shaft: Mapping, steps, standard: str) -> dict | None:
     """The keyseat's key (width, shaft depth t1, length) at the keyed seat: the shaft's own key
     when the seat is at the shaft's size, else the standard key for the seat's diameter
     (DIN 6885-1 / ANSI B17.1, data/keys_*.csv); the key length the key check used, if any."""
-    from workbench.core.tables import key_for_diameter
-
     seats = [s for s in steps if s["kind"] == "seat" and s.get("keyed")]
     if not seats:
         return None

@@ -105,18 +105,19 @@ def split_number(field: str, text: str) -> tuple[float, str]:
     if _ANY_REWRITE.search(text):
         for rule, replacement in _REWRITES:
             text = rule.sub(replacement, text)
-    match = _MIXED.match(text)
-    if match:
-        den = int(match["den"])
-        if den == 0:
-            raise QuantityError(field, f"{text!r} divides by zero")
-        return int(match["whole"]) + int(match["num"]) / den, match["unit"].strip()
-    match = _FRACTION.match(text)
-    if match:
-        den = int(match["den"])
-        if den == 0:
-            raise QuantityError(field, f"{text!r} divides by zero")
-        return int(match["num"]) / den, match["unit"].strip()
+    if "/" in text:  # both fraction forms need one
+        match = _MIXED.match(text)
+        if match:
+            den = int(match["den"])
+            if den == 0:
+                raise QuantityError(field, f"{text!r} divides by zero")
+            return int(match["whole"]) + int(match["num"]) / den, match["unit"].strip()
+        match = _FRACTION.match(text)
+        if match:
+            den = int(match["den"])
+            if den == 0:
+                raise QuantityError(field, f"{text!r} divides by zero")
+            return int(match["num"]) / den, match["unit"].strip()
     match = _PLAIN.match(text)
     if match:
         return float(match["number"]), match["unit"].strip()

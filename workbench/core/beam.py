@@ -31,6 +31,8 @@ import bisect
 import functools
 from dataclasses import dataclass, field
 
+from workbench.core.records import built
+
 _POINTS_PER_INTERVAL = 6
 """Sample points inside each interval for the drawn arrays (the cubic is exact between them)."""
 
@@ -134,13 +136,15 @@ def _check_segments(segments) -> list[tuple[float, float, float]]:
         raise BeamInputError("the shaft needs at least one segment")
     if abs(segs[0][0]) > _TOL_M:
         raise BeamInputError("the first segment must start at x = 0")
+    previous_end = None
     for k, (a, b, ei) in enumerate(segs):
         if not b > a:
             raise BeamInputError(f"segment {k} ends before it starts ({a} to {b} m)")
         if not ei > 0:
             raise BeamInputError(f"segment {k} has EI = {ei}; it must be positive")
-        if k and abs(a - segs[k - 1][1]) > _TOL_M:
+        if k and abs(a - previous_end) > _TOL_M:
             raise BeamInputError(f"segment {k} does not start where segment {k - 1} ends")
+        previous_end = b
     return segs
 
 
@@ -171,19 +175,24 @@ def _layout(segments, supports_m, points_m) -> _Layout:
     for x in points_m:
         if x < -_TOL_M or x > length_m + _TOL_M:
             raise BeamInputError(f"a load at x = {x} m lies off the shaft (0 to {length_m} m)")
-    knots = sorted({0.0, length_m, a_m, b_m, *points_m, *(s[1] for s in segs)})
-    merged = [knots[0]]
-    for x in knots[1:]:
-        if x - merged[-1] > _TOL_M:
-            merged.append(x)
-    merged[-1] = length_m
     seg_ends = [s[1] for s in segs]
-    ei = tuple(segs[min(bisect.bisect_left(seg_ends, 0.5 * (merged[i] + merged[i + 1])), len(segs) - 1)][2]
+    knots = sorted({0.0, length_m, a_m, b_m, *points_m, *seg_ends})
+    merged = [knots[0]]
+    last = knots[0]
+    for x in knots[1:]:
+        if x - last > _TOL_M:
+            merged.append(x)
+            last = x
+    merged[-1] = length_m
+    last_seg = len(segs) - 1
+    bisect_left = bisect.bisect_left
+    ei = tuple(segs[min(bisect_left(seg_ends, 0.5 * (merged[i] + merged[i + 1])), last_seg)][2]
                for i in range(len(merged) - 1))
-    lay = _Layout(tuple(merged), ei, 0, 0)
-    object.__setattr__(lay, "ia", lay.index(a_m))
-    object.__setattr__(lay, "ib", lay.index(b_m))
-    return lay
+    knots_t = tuple(merged)
+    last_knot = len(knots_t) - 1
+    # _Layout.index of each bearing
+    return built(_Layout, knots_t, ei, min(bisect_left(knots_t, a_m - _TOL_M), last_knot),
+                 min(bisect_left(knots_t, b_m - _TOL_M), last_knot))
 
 
 def _solve(lay: _Layout, force_at_knot: list[float]):
@@ -192,26 +201,30 @@ def _solve(lay: _Layout, force_at_knot: list[float]):
     xa, xb = knots[ia], knots[ib]
     # statics: R_a + R_b + sum F = 0 ; moments about a: R_b (b - a) + sum F (x - a) = 0
     total_N = sum(force_at_knot)
-    r_b = -sum(f * (x - xa) for x, f in zip(knots, force_at_knot)) / (xb - xa)
+    r_b = -sum([f * (x - xa) for x, f in zip(knots, force_at_knot)]) / (xb - xa)
     r_a = -total_N - r_b
     forces = list(force_at_knot)
     forces[ia] += r_a
     forces[ib] += r_b
-    n = len(knots)
-    moment = [0.0] * n
-    kappa_left, kappa_right = [0.0] * (n - 1), [0.0] * (n - 1)
-    y_p, th_p = [0.0] * n, [0.0] * n
-    shear_N, m = 0.0, 0.0
-    for i in range(n - 1):
-        shear_N += forces[i]  # sum of the forces left of this interval
-        h = knots[i + 1] - knots[i]
+    moment = [0.0]
+    kappa_left, kappa_right = [], []
+    y_p, th_p = [0.0], [0.0]
+    shear_N = m = th = yp = 0.0
+    x_left = knots[0]
+    for f, x_right, ei in zip(forces, knots[1:], lay.ei):
+        shear_N += f  # sum of the forces left of this interval
+        h = x_right - x_left
         m_next = m - shear_N * h
-        ei = lay.ei[i]
         ka, kb = -m / ei, -m_next / ei
-        kappa_left[i], kappa_right[i] = ka, kb
-        th_p[i + 1] = th_p[i] + h * (ka + kb) / 2
-        y_p[i + 1] = y_p[i] + th_p[i] * h + h * h * (2 * ka + kb) / 6
-        moment[i + 1] = m = m_next
+        kappa_left.append(ka)
+        kappa_right.append(kb)
+        yp = yp + th * h + h * h * (2 * ka + kb) / 6
+        th = th + h * (ka + kb) / 2
+        th_p.append(th)
+        y_p.append(yp)
+        moment.append(m_next)
+        m = m_next
+        x_left = x_right
     c2 = -(y_p[ib] - y_p[ia]) / (xb - xa)
     c1 = -y_p[ia] - c2 * xa
     y = [yp + c1 + c2 * x for yp, x in zip(y_p, knots)]
@@ -220,9 +233,12 @@ def _solve(lay: _Layout, force_at_knot: list[float]):
 
 
 def _forces_at_knots(lay: _Layout, loads) -> list[float]:
-    force_at_knot = [0.0] * len(lay.knots)
+    knots = lay.knots
+    last = len(knots) - 1
+    force_at_knot = [0.0] * len(knots)
+    bisect_left = bisect.bisect_left
     for x, f in loads:
-        force_at_knot[lay.index(x)] += f
+        force_at_knot[min(bisect_left(knots, x - _TOL_M), last)] += f  # _Layout.index
     return force_at_knot
 
 
@@ -242,5 +258,5 @@ def beam_response(segments, supports_m, loads) -> BeamResult:
     point_loads = [(float(x), float(f)) for x, f in loads]
     lay = _layout(segments, supports_m, [x for x, _f in point_loads])
     reactions, moment, kl, kr, y, theta = _solve(lay, _forces_at_knots(lay, point_loads))
-    return BeamResult((lay.knots[lay.ia], lay.knots[lay.ib]), reactions, lay.knots, tuple(y),
-                      tuple(theta), tuple(kl), tuple(kr), tuple(moment))
+    return built(BeamResult, (lay.knots[lay.ia], lay.knots[lay.ib]), reactions, lay.knots, tuple(y),
+                 tuple(theta), tuple(kl), tuple(kr), tuple(moment))

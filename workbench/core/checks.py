@@ -17,6 +17,7 @@ from dataclasses import dataclass, field
 from workbench.core import fatigue
 from workbench.core.drive import DriveLoads
 from workbench.core.loads import Mount, overhung_moment_Nm, side_load_N
+from workbench.core.records import built, built_from
 from workbench.core.sections import Section
 from workbench.core.stress_raisers import stress_raisers
 
@@ -173,22 +174,25 @@ def section_figures(
     static first-cycle yield at the static torque and its moment (Eqs. 7-15/7-16); shear yield
     n = 0.577 Sy / (Kfs tau_static).
     """
-    g = section.geometry
     tau_per_t = section.shear_per_torque_Pa_per_Nm
     z = section.section_modulus_m3
+    tensile = material.tensile_Pa
     tau = design_torque_Nm * tau_per_t
     sigma = moment_design_Nm / z
-    marin = fatigue.marin_factors(g.finish, material.tensile_Pa, section.size_factor_diameter_m, settings.reliability)
-    se = fatigue.endurance_limit_Pa(material.tensile_Pa, marin)
-    alt, mean = fatigue.von_mises_amplitudes(kf * sigma, 0.0, 0.0, kfs * tau)
-    n_fatigue = fatigue.fatigue_safety_factor(settings.criterion, alt, mean, se, material.tensile_Pa, material.yield_Pa)
+    ka, kb, ke, se = fatigue.marin_endurance(section.geometry.finish, tensile, section.size_factor_diameter_m,
+                                             settings.reliability)
+    marin = {"ka": ka, "kb": kb, "kc": 1.0, "kd": 1.0, "ke": ke}  # fatigue.marin_factors, a fresh dict
+    # fatigue.von_mises_amplitudes(kf sigma, 0, 0, kfs tau): fully reversed bending, steady torsion
+    alt = math.sqrt((kf * sigma) ** 2 + 3.0 * 0.0**2)
+    mean = math.sqrt(0.0**2 + 3.0 * (kfs * tau) ** 2)
+    n_fatigue = fatigue.fatigue_safety_factor(settings.criterion, alt, mean, se, tensile, material.yield_Pa)
     tau_peak = static_torque_Nm_ * tau_per_t
     sigma_peak = moment_static_Nm / z
-    peak_vm = fatigue.first_cycle_yield_stress_Pa(kf * sigma_peak, kfs * tau_peak)
+    peak_vm = math.sqrt((kf * sigma_peak) ** 2 + 3.0 * (kfs * tau_peak) ** 2)  # fatigue.first_cycle_yield_stress_Pa
     n_static = material.yield_Pa / peak_vm if peak_vm > 0 else math.inf
     n_shear = DISTORTION_ENERGY_SHEAR * material.yield_Pa / (kfs * tau_peak) if tau_peak > 0 else math.inf
-    return SectionFigures(tau, sigma, math.sqrt(sigma**2 + 3.0 * tau**2), math.sqrt(sigma**2 + 4.0 * tau**2),
-                          marin, se, alt, mean, peak_vm, n_static, n_shear, n_fatigue)
+    return built(SectionFigures, tau, sigma, math.sqrt(sigma**2 + 3.0 * tau**2), math.sqrt(sigma**2 + 4.0 * tau**2),
+                 marin, se, alt, mean, peak_vm, n_static, n_shear, n_fatigue)
 
 
 def twist_limit_deg_per_m(section: Section, settings: Settings) -> float:
@@ -212,6 +216,14 @@ def check_shaft(
     Verdict: fail if the lowest of the static and fatigue factors is below ``required_sf``;
     marginal if it is within 10 % above it, or the twist rate exceeds its limit; pass otherwise.
     """
+    return built_from(ShaftCheck, shaft_check_fields(section, material, loads, mount, settings))
+
+
+def shaft_check_fields(
+    section: Section, material: MaterialProps, loads: DriveLoads, mount: Mount, settings: Settings
+) -> dict:
+    """The fields of :func:`check_shaft`'s ShaftCheck by name, in field order (a caller that
+    replaces some of them builds the record once, with :func:`workbench.core.records.built_from`)."""
     g = section.geometry
     feature, kt, kts, kf, kfs = _feature_factors(section, material.tensile_Pa)
 
@@ -240,39 +252,47 @@ def check_shaft(
     methods["twist"] = "theta = T/(G J) at design torque; limit " + (
         "as given" if settings.twist_limit_deg_per_m else "1 deg over 20 diameters (common practice)"
     )
-    return ShaftCheck(
-        section=section,
-        material=material,
-        side_load_N=force_design,
-        bending_moment_Nm=moment_design,
-        max_shear_stress_Pa=tau,
-        bending_stress_Pa=sigma,
-        von_mises_stress_Pa=von_mises,
-        tresca_stress_Pa=tresca,
-        twist_deg_per_m=twist,
-        twist_limit_deg_per_m=limit,
-        mass_kg_per_m=section.area_m2 * material.density_kg_m3,
-        marin=marin,
-        endurance_limit_Pa=se,
-        Kt=kt,
-        Kts=kts,
-        Kf=kf,
-        Kfs=kfs,
-        feature=feature,
-        fatigue_criterion=fatigue.CRITERIA[settings.criterion],
-        fatigue_alt_Pa=alt,
-        fatigue_mean_Pa=mean,
-        peak_von_mises_Pa=peak_vm,
-        static_safety_factor=n_static,
-        shear_yield_safety_factor=n_shear,
-        fatigue_safety_factor=n_fatigue,
-        verdict=verdict,
-        governing=governing,
-        why=why,
-        methods=methods,
-        buckling_safety_factor=n_buckling,
-        buckling_shear_Pa=buckle_Pa,
-    )
+    return {  # every field of ShaftCheck, in its order
+        "section": section,
+        "material": material,
+        "side_load_N": force_design,
+        "bending_moment_Nm": moment_design,
+        "max_shear_stress_Pa": tau,
+        "bending_stress_Pa": sigma,
+        "von_mises_stress_Pa": von_mises,
+        "tresca_stress_Pa": tresca,
+        "twist_deg_per_m": twist,
+        "twist_limit_deg_per_m": limit,
+        "mass_kg_per_m": section.area_m2 * material.density_kg_m3,
+        "marin": marin,
+        "endurance_limit_Pa": se,
+        "Kt": kt,
+        "Kts": kts,
+        "Kf": kf,
+        "Kfs": kfs,
+        "feature": feature,
+        "fatigue_criterion": fatigue.CRITERIA[settings.criterion],
+        "fatigue_alt_Pa": alt,
+        "fatigue_mean_Pa": mean,
+        "peak_von_mises_Pa": peak_vm,
+        "static_safety_factor": n_static,
+        "shear_yield_safety_factor": n_shear,
+        "fatigue_safety_factor": n_fatigue,
+        "verdict": verdict,
+        "governing": governing,
+        "why": why,
+        "methods": methods,
+        "steps": (),
+        "governing_step": None,
+        "notes": (),
+        "assumptions": (),
+        "key": None,
+        "stiffness": None,
+        "placed": None,
+        "side_loads": (),
+        "buckling_safety_factor": n_buckling,
+        "buckling_shear_Pa": buckle_Pa,
+    }
 
 
 def tube_buckling(section: Section, material: MaterialProps, torque_Nm: float) -> tuple[float | None, float]:

@@ -85,13 +85,22 @@ def marin_factors(finish: str, tensile_Pa: float, size_diameter_m: float, reliab
     kc = 1 because torsion and bending are combined by von Mises (Shigley 9th ed., Sec. 6-14);
     kd = 1 (room temperature).
     """
-    ka, kb, ke = _marin(finish, tensile_Pa, size_diameter_m, reliability)
+    ka, kb, ke, _se = _marin(finish, tensile_Pa, size_diameter_m, reliability)
     return {"ka": ka, "kb": kb, "kc": 1.0, "kd": 1.0, "ke": ke}  # a fresh dict: the caller may keep it
 
 
+def marin_endurance(finish: str, tensile_Pa: float, size_diameter_m: float,
+                    reliability: float) -> tuple[float, float, float, float]:
+    """(ka, kb, ke, Se [Pa]): the Marin factors of :func:`marin_factors` (kc = kd = 1) and the
+    endurance limit :func:`endurance_limit_Pa` gives with them (Shigley 9th ed., Eq. 6-18)."""
+    return _marin(finish, tensile_Pa, size_diameter_m, reliability)
+
+
 @functools.lru_cache(maxsize=1024)  # pure; the steps of one shaft repeat it
-def _marin(finish: str, tensile_Pa: float, size_diameter_m: float, reliability: float) -> tuple[float, float, float]:
-    return surface_factor(finish, tensile_Pa), size_factor(size_diameter_m), reliability_factor(reliability)
+def _marin(finish: str, tensile_Pa: float, size_diameter_m: float,
+           reliability: float) -> tuple[float, float, float, float]:
+    ka, kb, ke = surface_factor(finish, tensile_Pa), size_factor(size_diameter_m), reliability_factor(reliability)
+    return ka, kb, ke, endurance_limit_Pa(tensile_Pa, {"ka": ka, "kb": kb, "kc": 1.0, "kd": 1.0, "ke": ke})
 
 
 def endurance_limit_Pa(tensile_Pa: float, factors: dict[str, float]) -> float:

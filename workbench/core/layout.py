@@ -249,15 +249,23 @@ class MomentLine:
     def max_over(self, x_lo: float, x_hi: float) -> float:
         """Largest |M| over [x_lo, x_hi] [N*m]: the diagram is piecewise linear, so the largest value
         is at an end or at a load or support inside."""
-        best = max(self.at(x_lo), self.at(x_hi))
-        points = self.terms if self.terms is not None else self.forces
-        for x, _ in points:
+        at = self.at
+        best = at(x_lo)
+        value = at(x_hi)
+        if value > best:  # max(), keeping the first of equals
+            best = value
+        terms = self.terms
+        for x, _ in (terms if terms is not None else self.forces):
             if x_lo < x < x_hi:
-                best = max(best, self.at(x))
-        if self.terms is None:
+                value = at(x)
+                if value > best:
+                    best = value
+        if terms is None:
             b1 = self.placed.bearing_x_m[0]
             if x_lo < b1 < x_hi:
-                best = max(best, self.at(b1))
+                value = at(b1)
+                if value > best:
+                    best = value
         return best
 
 

@@ -22,11 +22,13 @@ from dataclasses import dataclass, replace
 
 from workbench.core import fatigue
 from workbench.core.checks import (
-    MARGINAL_BAND, MaterialProps, SectionFigures, Settings, ShaftCheck, _verdict, check_shaft, section_figures, static_torque_Nm,
+    MARGINAL_BAND, MaterialProps, SectionFigures, Settings, ShaftCheck, _verdict, section_figures, shaft_check_fields,
+    static_torque_Nm,
 )
 from workbench.core.drive import DriveLoads
 from workbench.core.layout import GRAVITY_M_S2, MomentLine, Placed, SideLoads, point_loads, torque_fraction
 from workbench.core.loads import Mount, side_load_N
+from workbench.core.records import built, built_from
 from workbench.core.sections import Section, section_for
 from workbench.core.shoulder_factors import shoulder_factors
 from workbench.core.steps import Step
@@ -85,14 +87,6 @@ def _keyseat_scale(geometry) -> float:
         return 1.0
 
 
-def _features(step: Step, section: Section, tensile_Pa: float) -> tuple[str, float, float, float, float, list[str]]:
-    """(feature words, Kt, Kts, Kf, Kfs, notes) of a step; the larger of each where raisers meet."""
-    *figures, notes = _step_features(step.kind, step.keyed, step.geometry, step.diameter_m, step.larger_m,
-                                     step.fillet_m, step.larger_round, step.feature_word,
-                                     section.size_factor_diameter_m, tensile_Pa)
-    return (*figures, list(notes))
-
-
 @functools.lru_cache(maxsize=1024)  # pure in what it reads of the step; repeated steps and keystrokes find it
 def _step_features(kind: str, keyed: bool, g, diameter_m: float, larger_m: float, fillet_m: float,
                    larger_round: bool, feature_word: str, d_m: float, tensile_Pa: float) -> tuple:
@@ -145,12 +139,13 @@ def check_steps(
     driving element is 2 T K / D at each torque level; weights (m g) and the driven element's load
     are the same at both.
     """
-    base = check_shaft(body_section, material, loads, mount, settings)
+    base = shaft_check_fields(body_section, material, loads, mount, settings)
     layout = placed.layout
     static_T = static_torque_Nm(loads)
+    design_T = loads.design_torque_Nm
     weight = layout.element_mass_kg * GRAVITY_M_S2
     driven = driven_load_N + (layout.driven.mass_kg * GRAVITY_M_S2 if layout.driven else 0.0)
-    pull_design = side_load_N(loads.design_torque_Nm, mount.pitch_diameter_m, mount.load_factor)
+    pull_design = side_load_N(design_T, mount.pitch_diameter_m, mount.load_factor)
     pull_static = side_load_N(static_T, mount.pitch_diameter_m, mount.load_factor)
     forces_design = point_loads(placed, SideLoads(pull_design, weight, driven))
     forces_static = point_loads(placed, SideLoads(pull_static, weight, driven))
@@ -160,24 +155,36 @@ def check_steps(
     all_notes = list(notes)
     assumptions = list(placed.notes)
     sections: dict = {}  # journals, seats and shoulders of one size share one section
-    for step in steps:
-        section = sections.get(step.geometry) if step.kind != "body" else body_section
-        if section is None:
-            section = sections[step.geometry] = _section(step, body_section)
-        feature, kt, kts, kf, kfs, step_notes = _features(step, section, material.tensile_Pa)
-        all_notes.extend(n for n in step_notes if n not in all_notes)  # each fact once
+    tensile = material.tensile_Pa
+    best = None  # (lowest factor, -(Kf + Kfs), index) of the governing step so far
+    for index, step in enumerate(steps):
+        if step.kind == "body":
+            section = body_section
+        else:
+            section = sections.get(step.geometry)
+            if section is None:
+                section = sections[step.geometry] = _section(step, body_section)
+        feature, kt, kts, kf, kfs, step_notes = _step_features(
+            step.kind, step.keyed, step.geometry, step.diameter_m, step.larger_m, step.fillet_m, step.larger_round,
+            step.feature_word, section.size_factor_diameter_m, tensile)
+        if step_notes:
+            all_notes.extend(n for n in step_notes if n not in all_notes)  # each fact once
         share = torque_fraction(placed, step.check_from_m, step.check_to_m)
         m_design = line_design.max_over(step.check_from_m, step.check_to_m)
         m_static = line_static.max_over(step.check_from_m, step.check_to_m)
-        t_design, t_static = share * loads.design_torque_Nm, share * static_T
+        t_design, t_static = share * design_T, share * static_T
         figures = section_figures(section, material, kf, kfs, t_design, t_static, m_design, m_static, settings)
-        checks.append(StepCheck(step, section, m_design, m_static, t_design, t_static, feature, kt, kts, kf, kfs,
-                                figures, tuple(step_notes)))
-    index = min(range(len(checks)), key=lambda i: (checks[i].min_safety_factor, -checks[i].Kf - checks[i].Kfs, i))
+        checks.append(built(StepCheck, step, section, m_design, m_static, t_design, t_static, feature, kt, kts, kf,
+                            kfs, figures, step_notes))
+        rank = (min(figures.static_sf, figures.fatigue_sf), -kf - kfs, index)  # StepCheck.min_safety_factor
+        if best is None or rank < best:
+            best = rank
+    index = best[2]  # the lowest factor; on a tie the larger Kf + Kfs, then the first
     gov = checks[index]
     fig = gov.figures
-    verdict, governing, why = _verdict(fig.static_sf, fig.fatigue_sf, base.twist_deg_per_m,
-                                       base.twist_limit_deg_per_m, gov.where, settings, base.buckling_safety_factor)
+    verdict, governing, why = _verdict(fig.static_sf, fig.fatigue_sf, base["twist_deg_per_m"],
+                                       base["twist_limit_deg_per_m"], gov.where, settings,
+                                       base["buckling_safety_factor"])
     key = _key(checks, placed, material, static_T, hub_material, settings)
     masses = [(placed.load_x_m, layout.element_mass_kg)]
     if layout.driven is not None:
@@ -192,11 +199,9 @@ def check_steps(
         assumptions.extend(n for n in key.notes if n.startswith("hub too short") and n not in assumptions)
     verdict, governing, why = layout_verdict(verdict, governing, why, settings.required_sf, MARGINAL_BAND, key,
                                              stiffness, loads.shaft_speed_rpm)
-    methods = dict(base.methods)
-    methods["steps"] = ("each step at its own moment and torque; shoulders by Peterson's SCF 3rd ed. Charts "
-                        "3.10/3.12 fits; keyseat by Shigley 9th ed. Table 7-1; the weakest step governs")
-    return _replaced(
-        base,
+    methods = base["methods"]  # a fresh dict of this check's own
+    methods["steps"] = _STEPS_METHOD
+    base.update(
         side_load_N=pull_design,
         bending_moment_Nm=gov.bending_moment_Nm,
         bending_stress_Pa=fig.bending_Pa,
@@ -225,18 +230,11 @@ def check_steps(
         placed=placed,
         side_loads=tuple(forces_design),
     )
+    return built_from(ShaftCheck, base)
 
 
-def _replaced(obj, **changes):
-    """A copy of the frozen dataclass ``obj`` with ``changes``: what ``dataclasses.replace`` gives for a
-    class with no ``__post_init__`` and no derived fields, without calling ``__init__`` field by field."""
-    fields = obj.__dict__
-    if not changes.keys() <= fields.keys():
-        raise TypeError(f"not fields of {type(obj).__name__}: {sorted(changes.keys() - fields.keys())}")
-    new = object.__new__(type(obj))
-    new.__dict__.update(fields)
-    new.__dict__.update(changes)
-    return new
+_STEPS_METHOD = ("each step at its own moment and torque; shoulders by Peterson's SCF 3rd ed. Charts "
+                 "3.10/3.12 fits; keyseat by Shigley 9th ed. Table 7-1; the weakest step governs")
 
 
 def _key(checks: list[StepCheck], placed: Placed, material: MaterialProps, torque_Nm: float,

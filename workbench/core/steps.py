@@ -19,11 +19,13 @@ SI floats only; no pint.
 
 from __future__ import annotations
 
+import functools
 import math
 from dataclasses import dataclass, replace
 
 from workbench.core.geometry import ShaftGeometry
 from workbench.core.layout import LayoutError, Placed
+from workbench.core.records import built
 
 DEFAULT_FILLET_PER_D = 0.02  # r/d of the default shoulder fillet (Shigley 9th ed., Table 7-1 "sharp" fillet)
 JOURNAL_UPPER_DEVIATION_M = 0.05e-3  # above nominal: covers m6 bearing seats up to 180 mm (ISO 286-2; from memory)
@@ -108,6 +110,7 @@ def can_turn(geometry: ShaftGeometry, journal_m: float) -> bool:
     return inscribed_m(geometry) >= need - 1e-12
 
 
+@functools.lru_cache(maxsize=1024)  # pure in the (frozen) body and the size: the journals of a shaft repeat it
 def _turned(body: ShaftGeometry, diameter_m: float, keyed: bool) -> ShaftGeometry:
     """The section of a journal or seat turned on ``body``: a round (a tube keeps its bore)."""
     key = dict(keyed=keyed, key_standard=body.key_standard)
@@ -150,6 +153,20 @@ def _check_turn(plan: StepPlan, d_m: float, field: str, what: str) -> None:
                                  "or --as-bar for square-bore bearings and hubs")
 
 
+@functools.lru_cache(maxsize=256)  # pure in the (frozen) geometry
+def _plain_body(geometry: ShaftGeometry) -> ShaftGeometry:
+    """The bar's body: its own profile with no keyseat and no stress raiser typed in the spec."""
+    return replace(geometry, keyed=False, shoulder="none")
+
+
+def _step(kind: str, label: str, x_start_m: float, x_end_m: float, diameter_m: float, geometry: ShaftGeometry,
+          check_from_m: float, check_to_m: float, fillet_m: float = 0.0, keyed: bool = False,
+          larger_m: float = 0.0, larger_round: bool = True, feature_word: str = "none") -> Step:
+    """``Step(...)`` with the same arguments (built without the field-by-field frozen ``__init__``)."""
+    return built(Step, kind, label, x_start_m, x_end_m, diameter_m, geometry, check_from_m, check_to_m, fillet_m,
+                 keyed, larger_m, larger_round, feature_word)
+
+
 def _same(a: float, b: float) -> bool:
     return abs(a - b) <= 1e-9
 
@@ -162,7 +179,7 @@ def build_steps(plan: StepPlan, placed: Placed) -> tuple[list[Step], list[str]]:
     when no hub length is given); journals and the shoulders beside them at the bearing centre
     and the bearing face (the bearing width is assumed); the body over its whole length.
     """
-    body = replace(plan.body, keyed=False, shoulder="none")
+    body = _plain_body(plan.body)
     notes: list[str] = []
     inscribed = inscribed_m(body)
     round_body = body.profile in ("round", "tube") and not body.flats
@@ -208,7 +225,7 @@ def build_steps(plan: StepPlan, placed: Placed) -> tuple[list[Step], list[str]]:
         stepped = not (_same(d_m, big) and big_is_round)
         if not stepped and word == "none":
             return
-        steps.append(Step("shoulder", label, x, x, d_m, _turned(body, d_m, keyed), lo, hi,
+        steps.append(_step("shoulder", label, x, x, d_m, _turned(body, d_m, keyed), lo, hi,
                           fillet_m=fillet_for(d_m) if stepped else 0.0, keyed=keyed,
                           larger_m=big if stepped else d_m, larger_round=big_is_round, feature_word=word))
 
@@ -217,9 +234,9 @@ def build_steps(plan: StepPlan, placed: Placed) -> tuple[list[Step], list[str]]:
     keyed = plan.keyed_seat
     word = plan.body.shoulder
     seat_label = "hub seat" + (", keyseat" if keyed else "")
-    seat_step = Step("seat", seat_label, seat_lo, seat_hi, seat, _turned(body, seat, keyed), check_lo, check_hi,
+    seat_step = _step("seat", seat_label, seat_lo, seat_hi, seat, _turned(body, seat, keyed), check_lo, check_hi,
                      keyed=keyed)
-    journal1 = Step("journal", "bearing 1 journal", b1 - half_j, b1 + half_j, journal, _turned(body, journal, False),
+    journal1 = _step("journal", "bearing 1 journal", b1 - half_j, b1 + half_j, journal, _turned(body, journal, False),
                     b1 - half_j, b1 + half_j)
     overhung = placed.layout.position == "overhung"
     end = b2 + half_j if b2 is not None else b1 + half_j + max(2.0 * larger, 0.1)
@@ -230,7 +247,7 @@ def build_steps(plan: StepPlan, placed: Placed) -> tuple[list[Step], list[str]]:
         # the seat's inboard end: a shoulder to the body (or the typed stress raiser), taken where the seat is
         if seat_hi < b1 - half_j - 1e-9:
             shoulder(seat_hi, seat, "shoulder at the hub seat", check_hi, check_hi, keyed, word)
-            steps.append(Step("body", "body between hub and bearing 1", seat_hi, b1 - half_j, inscribed, body,
+            steps.append(_step("body", "body between hub and bearing 1", seat_hi, b1 - half_j, inscribed, body,
                               seat_hi, b1 - half_j))
             shoulder(b1 - half_j, journal, "shoulder at bearing 1 (outboard)", b1 - half_j, b1, False)
         else:  # the seat runs into the journal: a shoulder only where their diameters differ
@@ -240,27 +257,27 @@ def build_steps(plan: StepPlan, placed: Placed) -> tuple[list[Step], list[str]]:
         steps.append(journal1)
         shoulder(b1 + half_j, journal, "shoulder at bearing 1", b1, b1 + half_j, False)
         body_end = (b2 - half_j) if b2 is not None else end
-        steps.append(Step("body", "body between the bearings" if b2 is not None else "body past bearing 1",
+        steps.append(_step("body", "body between the bearings" if b2 is not None else "body past bearing 1",
                           b1 + half_j, body_end, inscribed, body, b1 + half_j, body_end))
     else:
         steps.append(journal1)
         shoulder(b1 + half_j, journal, "shoulder at bearing 1", b1, b1 + half_j, False)
-        steps.append(Step("body", "body between bearing 1 and the hub", b1 + half_j, seat_lo, inscribed, body,
+        steps.append(_step("body", "body between bearing 1 and the hub", b1 + half_j, seat_lo, inscribed, body,
                           b1 + half_j, seat_lo))
         shoulder(seat_lo, seat, "shoulder at the hub seat", seat_lo, seat_lo, keyed, word)
         steps.append(seat_step)
         shoulder(seat_hi, seat, "shoulder at the hub seat (far side)", seat_hi, seat_hi, keyed)
         body_end = (b2 - half_j) if b2 is not None else seat_hi + max(2.0 * larger, 0.1)
-        steps.append(Step("body", "body between the hub and bearing 2" if b2 is not None else "body past the hub",
+        steps.append(_step("body", "body between the hub and bearing 2" if b2 is not None else "body past the hub",
                           seat_hi, body_end, inscribed, body, seat_hi, body_end))
         end = max(end, body_end)
     if b2 is not None:
         shoulder(b2 - half_j, journal, "shoulder at bearing 2", b2 - half_j, b2, False)
-        steps.append(Step("journal", "bearing 2 journal", b2 - half_j, b2 + half_j, journal,
+        steps.append(_step("journal", "bearing 2 journal", b2 - half_j, b2 + half_j, journal,
                           _turned(body, journal, False), b2 - half_j, b2 + half_j))
         if end > b2 + half_j + 1e-9:
             shoulder(b2 + half_j, journal, "shoulder at bearing 2 (outboard)", b2, b2 + half_j, False)
-            steps.append(Step("body", "body past bearing 2", b2 + half_j, end, inscribed, body, b2 + half_j, end))
+            steps.append(_step("body", "body past bearing 2", b2 + half_j, end, inscribed, body, b2 + half_j, end))
     return steps, notes
 
 
@@ -270,4 +287,4 @@ def _bar_steps(body: ShaftGeometry, placed: Placed) -> list[Step]:
     size = inscribed_m(body)
     half = JOURNAL_LENGTH_PER_D * size / 2.0
     end = max(placed.length_m, (b2 if b2 is not None else b1) + half)
-    return [Step("body", "bar through (square-bore units)", 0.0, end, size, body, 0.0, end)]
+    return [_step("body", "bar through (square-bore units)", 0.0, end, size, body, 0.0, end)]

@@ -18,7 +18,13 @@ import functools
 import math
 from dataclasses import dataclass
 
+from workbench.core.beam import BeamInputError, beam_response
+from workbench.core.bearing_limits import slope_limit_rad
+from workbench.core.critical_speed import first_critical_speed
 from workbench.core.geometry import ShaftGeometry
+from workbench.core.key_strength import hub_material, key_check
+from workbench.core.keyseat_factors import stated_depth_m
+from workbench.core.records import built
 
 DEFAULT_BEARING_TYPE = "deep-groove-ball"  # the commonest bearing; its Table 7-2 limit is the lower end, 0.001 rad
 SLOPE_FAIL_RATIO = 2.0  # slope over twice its limit fails (our rule, stated)
@@ -100,50 +106,46 @@ def stiffness_figures(steps, placed, forces, masses, E_Pa: float, density_kg_m3:
     elements. Deflection and slope by double integration over the steps (Shigley 9th ed. Sec. 4-4,
     7-5; :mod:`workbench.core.beam`); critical speed by Rayleigh and Dunkerley (Sec. 7-6).
     """
-    from workbench.core.beam import BeamInputError, beam_response
-    from workbench.core.bearing_limits import slope_limit_rad
-
     b1, b2 = placed.bearing_x_m
     if b2 is None:
         return None
-    segments = beam_segments(steps, E_Pa, density_kg_m3)
-    beam = beam_response([s[:3] for s in segments], (b1, b2), forces)
-    element_x = [x for x, _ in forces]
+    segments = tuple(beam_segments(steps, E_Pa, density_kg_m3))
+    supports = (b1, b2)
+    beam = beam_response([s[:3] for s in segments], supports, forces)
     # the shaft's own weight, added in the worse sense: the element loads' direction to gravity is
     # not known, so |load response| + |weight response| (conservative)
-    own = _own_weight_beam(tuple(segments), (b1, b2))
-    deflections = tuple((x, math.copysign(abs(beam.deflection_at(x)) + abs(own.deflection_at(x)),
-                                          beam.deflection_at(x) or 1.0)) for x in element_x)
+    own = _own_weight_beam(segments, supports)
+    deflections = []
+    for x, _ in forces:
+        y_load = beam.deflection_at(x)
+        deflections.append((x, math.copysign(abs(y_load) + abs(own.deflection_at(x)), y_load or 1.0)))
+    deflections = tuple(deflections)
     slopes = (abs(beam.slope_at(b1)) + abs(own.slope_at(b1)), abs(beam.slope_at(b2)) + abs(own.slope_at(b2)))
     kind = bearing_type or DEFAULT_BEARING_TYPE
+    limit = slope_limit_rad(kind)
     notes = []
     if bearing_type is None:
         notes.append(f"--bearing-type: none given, the slope limit of a {kind} bearing is taken "
-                     f"({slope_limit_rad(kind):g} rad)")
+                     f"({limit:g} rad)")
     rayleigh = dunkerley = governing = None
     try:
-        critical = _critical(tuple(segments), (b1, b2), tuple((x, m) for x, m in masses if m > 0))
+        critical = _critical(segments, supports, tuple((x, m) for x, m in masses if m > 0))
         rayleigh, dunkerley, governing = critical.rayleigh_rpm, critical.dunkerley_rpm, critical.governing_rpm
         notes.extend(critical.notes)
     except BeamInputError as err:
         notes.append(f"critical speed not computed: {err}")
-    return StiffnessFigures(
-        deflection_m=max((abs(y) for _, y in deflections), default=0.0),
-        deflections=deflections,
-        bearing_slopes_rad=slopes,
-        bearing_type=kind,
-        slope_limit_rad=slope_limit_rad(kind),
-        critical_speed_rpm=governing,
-        rayleigh_rpm=rayleigh,
-        dunkerley_rpm=dunkerley,
-        methods={
-            "deflection": "double integration of M/EI over the steps, simple supports at the bearing centres "
-                          "(Shigley 9th ed. Sec. 4-4, 7-5); the shaft's own weight lumped in "
-                          f"{OWN_WEIGHT_PIECES} pieces per segment, added in the worse sense",
-            "slope_limit": "Shigley 9th ed. Table 7-2 (lower end of the range)",
-            "critical_speed": "Rayleigh (upper) and Dunkerley (lower), the lower decides (Shigley 9th ed. Sec. 7-6)",
-        },
-        notes=tuple(notes),
+    return built(
+        StiffnessFigures,
+        max((abs(y) for _, y in deflections), default=0.0),
+        deflections,
+        slopes,
+        kind,
+        limit,
+        governing,
+        rayleigh,
+        dunkerley,
+        dict(_METHODS),
+        tuple(notes),
     )
 
 
@@ -152,6 +154,13 @@ OWN_WEIGHT_PIECES = 16
 slope of a uniform simply supported shaft is within 0.1 % of wL^3/(24EI), Shigley 9th ed. Table
 A-9 case 7; tests/core/test_audit_fixes.py)."""
 GRAVITY_M_S2 = 9.80665
+_METHODS = {
+    "deflection": "double integration of M/EI over the steps, simple supports at the bearing centres "
+                  "(Shigley 9th ed. Sec. 4-4, 7-5); the shaft's own weight lumped in "
+                  f"{OWN_WEIGHT_PIECES} pieces per segment, added in the worse sense",
+    "slope_limit": "Shigley 9th ed. Table 7-2 (lower end of the range)",
+    "critical_speed": "Rayleigh (upper) and Dunkerley (lower), the lower decides (Shigley 9th ed. Sec. 7-6)",
+}
 
 
 @functools.lru_cache(maxsize=256)
@@ -159,7 +168,6 @@ def _own_weight_beam(segments, supports):
     """Beam response to the shaft's own weight alone [m, rad]: each segment's weight (mass per
     length x g) as OWN_WEIGHT_PIECES equal point loads at the centres of equal pieces. It depends
     on the geometry only, so it is found once per shaft."""
-    from workbench.core.beam import beam_response
 
     loads = []
     for x0, x1, _ei, mass_per_m in segments:
@@ -173,7 +181,6 @@ def _own_weight_beam(segments, supports):
 def _critical(segments, supports, masses):
     """First critical speed of one geometry (it does not depend on the loads or the speed, so a
     workbench edit of the drive finds it again instead of solving it anew)."""
-    from workbench.core.critical_speed import first_critical_speed
 
     return first_critical_speed(segments, supports, masses)
 
@@ -197,13 +204,10 @@ def key_figures(torque_Nm: float, seat: ShaftGeometry, key_row, hub_length_m: fl
     """Shear and crushing of the seat's parallel key over the hub length (DIN 6892 method C style,
     Shigley 9th ed. Sec. 7-7; :func:`workbench.core.key_strength.key_check`). ``key_row`` is the
     standard key (width, height, shaft depth) for the seat; None when the table has none."""
-    from workbench.core.key_strength import key_check, hub_material
 
     if key_row is None and not seat.key_width_m:
         return None
     width = seat.key_width_m or key_row.width_m
-    from workbench.core.keyseat_factors import stated_depth_m
-
     depth = stated_depth_m(seat.size_m, width, seat.key_depth_m, key_row.shaft_depth_m if key_row else 0.0,
                            seat.key_standard)
     height = key_row.height_m if key_row is not None and abs(key_row.width_m - width) < 1e-9 else 2.0 * depth
