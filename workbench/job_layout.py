@@ -20,10 +20,11 @@ Input keys (CLI option in brackets; bare numbers: mm, kg, N):
 from __future__ import annotations
 
 import math
-from dataclasses import dataclass, replace
+from dataclasses import dataclass
 from typing import Mapping
 
-from workbench.core.layout import DRIVEN_POSITIONS, POSITIONS, DrivenElement, Layout, moment_diagram
+from workbench.core.evaluate import ShaftCase
+from workbench.core.layout import DRIVEN_POSITIONS, POSITIONS, DrivenElement, Layout, Placed, moment_diagram
 from workbench.core.stiffness import DEFAULT_BEARING_TYPE
 from workbench.core.steps import StepPlan, inscribed_m
 from workbench.units import FORCE, LENGTH, MASS, QuantityError, parse_quantity
@@ -156,7 +157,7 @@ def with_plans(inputs: Mapping[str, str], cases: list, layout_in: LayoutInputs) 
             plan = StepPlan(g, journal, seat, sizes["candidate_fillet"], keyed_seat=hub_keyed and not as_bar,
                             as_bar=as_bar, journal_field=journal_field, seat_field=seat_field,
                             fillet_field="candidate_fillet")
-        out.append(replace(case, plan=plan))
+        out.append(ShaftCase(case.role, case.geometry, case.material, plan))  # replace(case, plan=plan)
     return out
 
 
@@ -243,6 +244,7 @@ def moment_diagram_dict(check, loads) -> dict:
     if placed is None:
         return {"x_m": [], "moment_Nm": [], "torque_Nm": []}
     end = max([placed.length_m] + [item.step.x_end_m for item in check.steps])
-    placed = replace(placed, length_m=end)
+    placed = Placed(placed.layout, placed.load_x_m, placed.bearing_x_m, placed.seat_m, placed.seat_check_m,
+                    placed.driven_x_m, end, placed.notes)  # replace(placed, length_m=end)
     xs, moments, torques = moment_diagram(placed, list(check.side_loads), loads.design_torque_Nm)
     return {"x_m": list(xs), "moment_Nm": list(moments), "torque_Nm": list(torques)}

@@ -14,7 +14,7 @@ from __future__ import annotations
 import math
 import re
 from dataclasses import dataclass
-from functools import cache
+from functools import cache, lru_cache
 
 from workbench.unit_table import si_factor
 
@@ -102,9 +102,7 @@ def split_number(field: str, text: str) -> tuple[float, str]:
         raise QuantityError(field, "is empty; expected a number with a unit")
     if "," in text:
         text = _decimal_comma(field, text)
-    if _ANY_REWRITE.search(text):
-        for rule, replacement in _REWRITES:
-            text = rule.sub(replacement, text)
+    text = _rewritten(text)
     if "/" in text:  # both fraction forms need one
         match = _MIXED.match(text)
         if match:
@@ -125,6 +123,15 @@ def split_number(field: str, text: str) -> tuple[float, str]:
     if lowered.lstrip("+-") in ("nan", "inf", "infinity"):
         raise QuantityError(field, f"{text!r} is not a finite number")
     raise QuantityError(field, f"{text!r} does not start with a number")
+
+
+@lru_cache(maxsize=1024)  # pure in the text; the same entries are read on every evaluation of a job
+def _rewritten(text: str) -> str:
+    """``text`` with the trade's spellings rewritten for pint (see _REWRITES)."""
+    if _ANY_REWRITE.search(text):
+        for rule, replacement in _REWRITES:
+            text = rule.sub(replacement, text)
+    return text
 
 
 _COMMA = re.compile(r"^(?P<whole>[+-]?\d+),(?P<part>\d+)(?P<rest>(?:\s|[^\d.,]).*)?$")
