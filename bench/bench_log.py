@@ -5,15 +5,18 @@
 
 Fills a fresh SQLite log with generated jobs by the bulk insert path (results computed once per
 distinct input set with the real ``evaluate_inputs``, each stored row built by ``values.job_row`` -
-the compressed payload is made once per distinct result and reused - inserted in one transaction
-with every trigger and index live), then times real ``save()`` calls (synchronous=FULL, one durable
-commit each) and the reads a person waits for. With ``--pg URL`` (or $SHAFTBENCH_BENCH_PG) the same
-is done on a PostgreSQL log at --pg-jobs jobs (its tables are dropped first: use a scratch database).
+the compressed payload is made once per distinct result and reused - inserted in one transaction;
+the text index and the counts are made at its end, in the same transaction), then times real
+``save()`` calls (synchronous=FULL, one durable commit each, every trigger live) and the reads a
+person waits for. With ``--pg URL`` (or $SHAFTBENCH_BENCH_PG) the same is done on a PostgreSQL log
+at --pg-jobs jobs (its tables are dropped first: use a scratch database).
 Prints medians with their range (min-max over the repetitions) and never asserts; targets (speed
 issue): <= 1.2 KB a job on disk, save <= 20 ms, open + first page + total count <= 50 ms at 1M jobs,
-any text filter + first page <= 100 ms (its exact count is timed on a line of its own, as a
-screen may show it when it is ready). Each text-filter repetition starts with
-``forget_counts()``, as if the filter had just been typed; open is a new connection each time.
+any text filter + first page <= 100 ms. A filter's exact count is timed on a line of its own: the
+review screen shows the page first and the count when it is ready. Words of one or two characters
+(``p-``, ``7``, ``li``) are looked up through the trigrams they begin (workbench/store/text_search.py).
+Each text-filter repetition starts with ``forget_counts()``, as if the filter had just been typed;
+open is a new connection each time.
 """
 
 from __future__ import annotations
@@ -98,10 +101,11 @@ def timed(action, repeat: int) -> list[float]:
     return times
 
 
-def line(label: str, times_ms: list[float], target_ms: float) -> None:
+def line(label: str, times_ms: list[float], target_ms: float | None) -> None:
     times_ms = sorted(times_ms)
+    goal = f"target <= {target_ms:g} ms" if target_ms is not None else "shown after the page"
     print(f"{label:<64} median {statistics.median(times_ms):7.2f} ms  range {times_ms[0]:7.2f}-"
-          f"{times_ms[-1]:<7.2f}  (target <= {target_ms:g} ms, n={len(times_ms)})")
+          f"{times_ms[-1]:<7.2f}  ({goal}, n={len(times_ms)})")
 
 
 FILTERS = (("sheared kestrel", None), ("pump", None), ("zzzz", None), ("4140", None),
@@ -148,7 +152,7 @@ def measure(label: str, target: str, jobs, count: int, saves: int, rng: random.R
 
             also = f" + verdict {verdict}" if verdict else ""
             line(f"text filter '{text}'{also} + first page ({found:,} found)", timed(search, 11), 100)
-            line(f"   its exact count, timed on its own", timed(count, 5), 100)
+            line(f"   its exact count, timed on its own", timed(count, 5), None)
 
         def verdict_fail() -> None:
             log.forget_counts()

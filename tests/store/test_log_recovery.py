@@ -226,7 +226,8 @@ def _fill_disk(folder: Path, keep_free: int) -> None:
 
 
 def test_saves_onto_a_filling_disk_are_kept_or_refused_clearly(small_disk):
-    folder = small_disk(1024)
+    # (the log is made with 8 KiB pages: it needs about twice the room it needed with 4 KiB)
+    folder = small_disk(2048)
     path = folder / "jobs.sqlite3"
     _make_log(path, 10)
     _fill_disk(folder, 80 * 1024)
@@ -248,7 +249,7 @@ def test_saves_onto_a_filling_disk_are_kept_or_refused_clearly(small_disk):
 
 
 def test_a_full_disk_leaves_no_empty_side_files(small_disk):
-    folder = small_disk(512)
+    folder = small_disk(1024)
     path = folder / "jobs.sqlite3"
     _make_log(path, 3)
     assert not wal_file(path).exists()
@@ -328,7 +329,7 @@ def test_a_read_only_log_can_be_listed_and_exported(tmp_path, monkeypatch):
 
 
 def test_a_log_on_a_read_only_mount_lists_and_exports(tmp_path, small_disk):
-    folder = small_disk(1024)
+    folder = small_disk(2048)
     path = folder / "jobs.sqlite3"
     _make_log(path, 3)
     done = subprocess.run(["mount", "-o", "remount,ro", str(folder)], capture_output=True, text=True)

@@ -343,3 +343,34 @@ async def test_the_outcome_form_records_how_the_fitted_shaft_ended(tmp_path):
         assert (job.fitted, job.fitted_on, job.outcome, job.outcome_date) == (
             "square 40mm", "2026-03-02", "failed", "2026-11-20")
         assert {c["field"] for c in log.changes(ids[-1])} == {"fitted", "fitted_on", "outcome", "outcome_date"}
+
+
+@run_async
+async def test_the_page_shows_before_its_count_and_the_count_follows(tmp_path, monkeypatch):
+    from workbench.store.sqlite_log import SqliteJobLog
+
+    path = tmp_path / "jobs.sqlite3"
+    ids = _fill(path, 3)
+    release = __import__("threading").Event()
+    slow_count = SqliteJobLog.count
+
+    def count(self, *args: Any, **kwargs: Any) -> int:
+        release.wait(5)  # as a count that reads many rows
+        return slow_count(self, *args, **kwargs)
+
+    monkeypatch.setattr(SqliteJobLog, "count", count)
+    app = Host(path)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = app.screen
+        for _ in range(200):
+            await pilot.pause(0.02)
+            if screen.counting:
+                break
+        assert screen.counting and screen.loads == 0
+        assert _ids(screen) == list(reversed(ids))  # the rows are there while the count is read
+        assert "counting" in str(screen.query_one("#review-status", Static).render())
+        release.set()
+        await _settle(pilot, screen, 1)
+        assert not screen.counting
+        status = str(screen.query_one("#review-status", Static).render())
+        assert "of 3" in status and "counting" not in status

@@ -106,6 +106,7 @@ def _v4_to_v5(conn: sqlite3.Connection) -> None:
     for trigger in schema.TEXT_TRIGGERS:
         conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
     conn.execute(f"DROP TABLE IF EXISTS {schema.TEXT_INDEX}")
+    conn.execute(f"DROP VIEW IF EXISTS {schema.TEXT_SOURCE}")
     conn.execute(schema.table_ddl("sqlite", "jobs", "jobs_v5", version=5))
     columns = [c for c, _ in schema.JOBS_V5]
     insert = f"INSERT INTO jobs_v5 ({', '.join(columns)}) VALUES ({', '.join('?' * len(columns))})"
@@ -225,18 +226,30 @@ def text_index_supported() -> bool:
 
 
 def _text_index_parts(conn: sqlite3.Connection) -> set[str]:
-    names = (schema.TEXT_INDEX, *schema.TEXT_TRIGGERS)
+    """The parts of the text index present in the file; the index counts only in layout 2."""
+    names = (schema.TEXT_INDEX, schema.TEXT_SOURCE, *schema.TEXT_TRIGGERS)
     rows = conn.execute(
-        f"SELECT name FROM sqlite_master WHERE name IN ({', '.join('?' * len(names))})", names
+        f"SELECT name, sql FROM sqlite_master WHERE name IN ({', '.join('?' * len(names))})", names
     ).fetchall()
-    return {name for (name,) in rows}
+    return {
+        name for name, sql in rows
+        if name != schema.TEXT_INDEX or schema.TEXT_INDEX_LAYOUT_MARK in (sql or "")
+    }
+
+
+def text_index_current(conn: sqlite3.Connection) -> bool:
+    """True if the file holds the text index in today's layout with its view and triggers."""
+    return _text_index_parts(conn) == {schema.TEXT_INDEX, schema.TEXT_SOURCE, *schema.TEXT_TRIGGERS}
 
 
 def build_text_index(conn: sqlite3.Connection) -> None:
-    """(Re)create the index and its triggers and fill it from jobs.search_text (caller's transaction)."""
+    """(Re)create the index, its view and triggers and fill it from jobs.search_text (caller's
+    transaction). An index in an older layout is replaced."""
     for trigger in schema.TEXT_TRIGGERS:
         conn.execute(f"DROP TRIGGER IF EXISTS {trigger}")
     conn.execute(f"DROP TABLE IF EXISTS {schema.TEXT_INDEX}")
+    conn.execute(f"DROP VIEW IF EXISTS {schema.TEXT_SOURCE}")
+    conn.execute(schema.TEXT_SOURCE_CREATE)
     conn.execute(schema.TEXT_INDEX_CREATE)
     for statement in schema.TEXT_INDEX_TRIGGERS:
         conn.execute(statement)
@@ -244,25 +257,23 @@ def build_text_index(conn: sqlite3.Connection) -> None:
 
 
 def ensure_text_index(conn: sqlite3.Connection) -> bool:
-    """Make the text index of a v3 log usable if this SQLite can; returns True if it is.
+    """Make the text index of a v3 or later log usable if this SQLite can; returns True if it is.
 
-    The index counts as current only while all three triggers exist. If this SQLite lacks FTS5 or
-    the trigram tokenizer, the triggers are dropped (so that saving still works here) and searching
-    falls back to LIKE; the next capable SQLite finds the triggers missing and rebuilds the index
-    from ``jobs.search_text`` in one transaction (about a second per 100,000 jobs).
+    The index counts as current only in today's layout (schema.TEXT_INDEX_CREATE) with its view
+    and all three triggers; an index in an older layout is rebuilt once, in one transaction (about
+    ten seconds per million jobs). If this SQLite lacks FTS5 or the trigram tokenizer, the triggers
+    are dropped (so that saving still works here) and searching falls back to LIKE; the next capable
+    SQLite finds the triggers missing and rebuilds the index from ``jobs.search_text``.
     ``conn`` must be in autocommit mode, as for ``migrate``.
     """
-    wanted = {schema.TEXT_INDEX, *schema.TEXT_TRIGGERS}
     supported = text_index_supported()
-    parts = _text_index_parts(conn)
-    if supported and parts == wanted:
+    if supported and text_index_current(conn):
         return True
-    if not supported and not parts & set(schema.TEXT_TRIGGERS):
+    if not supported and not _text_index_parts(conn) & set(schema.TEXT_TRIGGERS):
         return False
     conn.execute("BEGIN IMMEDIATE")
     try:
-        parts = _text_index_parts(conn)
-        if supported and parts != wanted:
+        if supported and not text_index_current(conn):
             build_text_index(conn)
         elif not supported:
             for trigger in schema.TEXT_TRIGGERS:

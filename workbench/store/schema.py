@@ -8,6 +8,9 @@ from __future__ import annotations
 
 APPLICATION_ID = 0x53424A4C  # "SBJL": Shaftbench job log
 LATEST_VERSION = 6
+PAGE_SIZE = 8192
+"""Bytes per page of a new log file (SQLite's default is 4096): a job row is about 800 bytes, and
+larger pages leave less unused room at the end of each (measured: bench/bench_log.py)."""
 
 # Version 1: one row per job; inputs and result as JSON text.
 V1 = (
@@ -43,38 +46,59 @@ V1_TO_V2 = (
 
 # Version 3: a trigram full-text index over search_text, so that a text filter reads a few index
 # pages instead of every row. It is an FTS5 "external content" table: it stores only the index and
-# reads the text from jobs.search_text; three triggers keep it in step with every insert, update and
+# reads the text from jobs.search_text (through the view below); three triggers keep it in step with every insert, update and
 # delete (save, update, delete, restore, purge, import and any older code path alike), inside the
 # same transaction. SQLite builds without FTS5 or its trigram tokenizer (added in SQLite 3.34) reach
 # version 3 without the index and filter with LIKE; see migrations.ensure_text_index.
 TEXT_INDEX = "jobs_text"
 TEXT_TRIGGERS = ("jobs_text_insert", "jobs_text_delete", "jobs_text_update")
+TEXT_PAD = "char(10, 10)"
+"""What the index appends to every job's text (SQL): two line breaks, so that every character is the
+first of some trigram and a word of one or two characters is found through the trigrams it begins
+(text_search.py). A filter word never holds a line break, so the padding matches nothing itself."""
+TEXT_SOURCE = "jobs_text_source"
+TEXT_SOURCE_CREATE = (
+    f"CREATE VIEW {TEXT_SOURCE}(id, search_text) AS SELECT id, search_text || {TEXT_PAD} FROM jobs"
+)
+# Layout 2 of the index (Shaftbench 0.2): detail=none keeps only which jobs hold each trigram, not
+# where (a third of the size of layout 1's detail=full); the content is the padded view above.
+# A word of three or more characters is looked up as all of its trigrams and confirmed with LIKE
+# (the trigrams may sit apart); an older Shaftbench reading a layout-2 index falls back to LIKE.
 TEXT_INDEX_CREATE = (
     f"CREATE VIRTUAL TABLE {TEXT_INDEX} USING fts5("
-    "search_text, content='jobs', content_rowid='id', tokenize='trigram', columnsize=0)"
+    f"search_text, content='{TEXT_SOURCE}', content_rowid='id', tokenize='trigram', columnsize=0, "
+    "detail=none)"
 )
+TEXT_INDEX_LAYOUT_MARK = f"content='{TEXT_SOURCE}'"
+"""Found in the index's CREATE statement (sqlite_master.sql) only in layout 2."""
 TEXT_INDEX_TRIGGERS = (
     f"""
     CREATE TRIGGER {TEXT_TRIGGERS[0]} AFTER INSERT ON jobs BEGIN
-        INSERT INTO {TEXT_INDEX}(rowid, search_text) VALUES (new.id, new.search_text);
+        INSERT INTO {TEXT_INDEX}(rowid, search_text) VALUES (new.id, new.search_text || {TEXT_PAD});
     END
     """,
     f"""
     CREATE TRIGGER {TEXT_TRIGGERS[1]} AFTER DELETE ON jobs BEGIN
-        INSERT INTO {TEXT_INDEX}({TEXT_INDEX}, rowid, search_text) VALUES ('delete', old.id, old.search_text);
+        INSERT INTO {TEXT_INDEX}({TEXT_INDEX}, rowid, search_text)
+            VALUES ('delete', old.id, old.search_text || {TEXT_PAD});
     END
     """,
     f"""
     CREATE TRIGGER {TEXT_TRIGGERS[2]} AFTER UPDATE OF id, search_text ON jobs BEGIN
-        INSERT INTO {TEXT_INDEX}({TEXT_INDEX}, rowid, search_text) VALUES ('delete', old.id, old.search_text);
-        INSERT INTO {TEXT_INDEX}(rowid, search_text) VALUES (new.id, new.search_text);
+        INSERT INTO {TEXT_INDEX}({TEXT_INDEX}, rowid, search_text)
+            VALUES ('delete', old.id, old.search_text || {TEXT_PAD});
+        INSERT INTO {TEXT_INDEX}(rowid, search_text) VALUES (new.id, new.search_text || {TEXT_PAD});
     END
     """,
 )
 TEXT_INDEX_REBUILD = f"INSERT INTO {TEXT_INDEX}({TEXT_INDEX}) VALUES ('rebuild')"
 TEXT_INDEX_CHECK = f"INSERT INTO {TEXT_INDEX}({TEXT_INDEX}) VALUES ('integrity-check')"
 TEXT_INDEX_MIN_CHARS = 3
-"""A trigram index finds words of three characters or more; shorter words are matched with LIKE."""
+"""The index's tokens are trigrams: a word of three characters or more is looked up by its own
+trigrams; a shorter word by the trigrams that begin with it (layout 2) or with LIKE."""
+TEXT_TERMS = "jobs_text_terms"
+TEXT_TERMS_CREATE = f"CREATE VIRTUAL TABLE IF NOT EXISTS temp.{TEXT_TERMS} USING fts5vocab(main, {TEXT_INDEX}, 'row')"
+"""The index's trigrams (one row each), a per-connection table in ``temp`` (the file is not touched)."""
 
 # Version 4: how a job ended, kept with the time of each change. ``fitted_on`` and
 # ``outcome_date`` are ISO dates (YYYY-MM-DD) or empty; ``outcome`` is empty, still-running, failed

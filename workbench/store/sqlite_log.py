@@ -169,6 +169,10 @@ class SqliteJobLog(TrigramSearch, JobLog):
         # Read-only probes first: nothing is written until the file is known to be ours.
         version = SqliteJobLog._identify(conn, path)
         conn.execute(f"PRAGMA busy_timeout = {int(BUSY_TIMEOUT_S * 1000)}")
+        if version == 0 and not conn.execute("SELECT count(*) FROM sqlite_master").fetchone()[0]:
+            # A new file: pages of 8 KiB hold a job row with less room left over (it is set before
+            # the first write; an existing log keeps the size it was made with).
+            conn.execute(f"PRAGMA page_size = {schema.PAGE_SIZE}")
         deadline = time.monotonic() + BUSY_TIMEOUT_S
         while True:  # switching to WAL needs a moment alone with the file
             try:
@@ -207,9 +211,9 @@ class SqliteJobLog(TrigramSearch, JobLog):
 
         columns = tuple(column(name) for name in schema.JOB_COLUMNS)
         parts = {row[0] for row in conn.execute("SELECT name FROM sqlite_master")}
-        text_index = (
+        text_index = (  # today's layout only: an older one cannot find short words (read-only: LIKE)
             migrations.text_index_supported()
-            and {schema.TEXT_INDEX, *schema.TEXT_TRIGGERS} <= parts
+            and migrations.text_index_current(conn)
             and "search_text" in present
         )
         return columns, bool(text_index), "job_changes" in parts

@@ -1,11 +1,23 @@
-"""Text filters of the SQLite job log: the trigram full-text index (FTS5, schema v3) where this
-SQLite has one, else LIKE over every row; both give the same answers.
+"""Text filters of the SQLite job log: the trigram full-text index (FTS5, schema v3, layout 2)
+where this SQLite has one, else LIKE over every row; both give the same answers.
 
-A filter is split into case-folded words; every word must appear in ``jobs.search_text``. Words of
-three characters or more are looked up in the trigram index; shorter words (the index holds only
-three-character tokens) are checked with LIKE on the rows the other words found, or on every row
-when no word is long enough. Every word is always checked with LIKE as well, so the answer is
-exactly the LIKE semantics whichever way the rows were found.
+A filter is split into case-folded words; every word must appear in ``jobs.search_text``. The index
+holds, for each trigram (three characters in a row), the jobs whose text holds it (detail=none: not
+where), over the text padded with two line breaks (schema.TEXT_PAD):
+
+- a word of three characters or more is looked up as all of its trigrams (``"pum" AND "ump"`` for
+  ``pump``): every job holding the word is found, and a few that hold the trigrams apart may be
+  found too, which the LIKE check removes;
+- a word of one or two ASCII characters is looked up as any trigram that begins with it (``"li"``:
+  ``"lin" OR "lid" OR ...``, the trigrams read from the index's own term list): thanks to the
+  padding every occurrence begins a trigram, so this finds exactly the jobs holding the word, and a
+  word no job holds is answered from the term list alone;
+- a shorter word with other characters is checked with LIKE only (the index folds case by its own
+  table, the text was folded by Python's ``str.casefold``).
+
+Every word is always checked with LIKE as well, so the answer is exactly the LIKE semantics whichever
+way the rows were found; a count is read from the index alone only when every word was looked up
+exactly (words of one to three characters).
 """
 
 from __future__ import annotations
@@ -29,12 +41,25 @@ class TextPlan:
     words: list[str]
     """Case-folded words; each must appear in search_text."""
     expression: str | None
-    """FTS5 query for the words the trigram index can find, or None (LIKE only)."""
+    """FTS5 query for the words the trigram index can look up, or None (LIKE only)."""
     matched: int | None
     """How many jobs, bin included, the index matches, counted up to INDEX_LOOKUP_LIMIT + 1
     (None without the index)."""
     needs_like: bool
-    """True if some word is not in ``expression`` (shorter than three characters) - or no index."""
+    """True if the index's count is not the answer: some word is not in ``expression`` or is
+    looked up by trigrams that may sit apart (four characters or more) - or there is no index."""
+
+
+MAX_PREFIX_TERMS = 400
+"""A one- or two-character word beginning more distinct trigrams than this is checked with LIKE
+alone (such a word is in most jobs: the newest-first LIKE scan fills a page at once)."""
+NO_JOB = object()
+"""What ``_word_expression`` returns for a word that no job's text holds."""
+
+
+def word_trigrams(word: str) -> list[str]:
+    """The distinct trigrams of a word of three characters or more, in order."""
+    return list(dict.fromkeys(word[i:i + 3] for i in range(len(word) - 2)))
 
 
 def match_phrase(word: str) -> str:
@@ -63,20 +88,61 @@ class TrigramSearch:
     _match_count_cache: tuple[Any, int] | None
 
     def _text_plan(self, text: str, *, full_count: bool = False) -> TextPlan:
-        """Split the filter text into words and, if the trigram index can serve it, count the
-        jobs (bin included) whose text holds every word of three or more characters: up to
-        INDEX_LOOKUP_LIMIT + 1, or all of them with ``full_count`` when every word is indexed."""
+        """Split the filter text into words and, if the trigram index can serve some of them, count
+        the jobs (bin included) the index finds for those words: up to INDEX_LOOKUP_LIMIT + 1, or
+        all of them with ``full_count`` when the index's count is the answer."""
         words = filter_words(text)
-        indexed = [w for w in words if len(w) >= schema.TEXT_INDEX_MIN_CHARS]
-        if not (self.text_index and indexed):
+        if not (self.text_index and words):
             return TextPlan(words, None, None, bool(words))
-        expression = " AND ".join(match_phrase(w) for w in indexed)
-        every_word = len(indexed) == len(words)
-        cap = None if full_count and every_word else INDEX_LOOKUP_LIMIT + 1
+        parts: list[str] = []
+        exact = True
+        for word in dict.fromkeys(words):
+            part = self._word_expression(word)
+            if part is NO_JOB:
+                return TextPlan(words, None, 0, False)
+            if part is None:
+                exact = False
+                continue
+            parts.append(part)
+            exact = exact and len(word) <= schema.TEXT_INDEX_MIN_CHARS
+        if not parts:
+            return TextPlan(words, None, None, True)
+        expression = " AND ".join(parts)
+        cap = None if full_count and exact else INDEX_LOOKUP_LIMIT + 1
         matched = self._match_count(expression, cap=cap)
         if matched is None:  # the index could not answer: LIKE alone
             return TextPlan(words, None, None, True)
-        return TextPlan(words, expression, matched, not every_word)
+        return TextPlan(words, expression, matched, not exact)
+
+    def _word_expression(self, word: str) -> str | object | None:
+        """The FTS5 query finding the jobs that may hold ``word`` (see the module note), NO_JOB if
+        the index shows that none does, or None if the index cannot look the word up."""
+        if len(word) >= schema.TEXT_INDEX_MIN_CHARS:
+            return " AND ".join(match_phrase(t) for t in word_trigrams(word))
+        if not word.isascii():
+            return None
+        terms = self._terms_beginning(word)
+        if terms is None or len(terms) > MAX_PREFIX_TERMS:
+            return None
+        if not terms:
+            return NO_JOB
+        return "(" + " OR ".join(match_phrase(t) for t in terms) + ")"
+
+    def _terms_beginning(self, word: str) -> list[str] | None:
+        """The index's trigrams that begin with ``word`` (read from the term list, a ``temp``
+        fts5vocab table made once per connection); None if the index cannot say."""
+        try:
+            if not getattr(self, "_terms_ready", False):
+                self.conn.execute(schema.TEXT_TERMS_CREATE)
+                self._terms_ready = True
+            rows = self.conn.execute(
+                f"SELECT term FROM temp.{schema.TEXT_TERMS} WHERE term >= ? AND term < ? AND doc > 0 "
+                f"LIMIT {MAX_PREFIX_TERMS + 1}",
+                (word, word + "\U0010ffff"),
+            ).fetchall()
+        except sqlite3.Error:
+            return None
+        return [term for (term,) in rows]
 
     def _match_count(self, expression: str, cap: int | None = None) -> int | None:
         """How many jobs (bin included) the index matches, counting no further than ``cap`` if

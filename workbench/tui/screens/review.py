@@ -223,7 +223,9 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         self.records: dict[int, Any] = {}
         self.rechecks: dict[int, Any] = {}
         self.loads = 0
-        """How many pages have been shown (tests wait on it)."""
+        """How many pages have been shown with their count (tests wait on it)."""
+        self.counting = False
+        """True while the page is shown and its filter's count is still being read."""
         self.columns: tuple[str, ...] = ()
         """Keys of the columns the list shows now (chosen by width, see COLUMNS)."""
 
@@ -315,14 +317,19 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         worker = get_current_worker()
         try:
             with JobLog.open(self.log_path, create=False) as log:
-                total = log.count(**filters)
+                # The page first, then its count: a text filter's exact count can take longer than
+                # the page (words the index cannot count alone), and the rows should not wait on it.
                 records = log.search(limit=self.page_size, offset=page * self.page_size, **filters)
+                if worker.is_cancelled:
+                    return
+                self.app.call_from_thread(self._show_page, records, None)
+                total = log.count(**filters)
         except LogError as err:
             if not worker.is_cancelled:
                 self.app.call_from_thread(self._show_error, str(err))
             return
         if not worker.is_cancelled:
-            self.app.call_from_thread(self._show_page, records, total)
+            self.app.call_from_thread(self._show_total, total)
 
     def _show_error(self, message: str) -> None:
         self.records = {}
@@ -332,18 +339,23 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         self._status(message)
         self.loads += 1
 
-    def _show_page(self, records: list[Any], total: int) -> None:
+    def _show_page(self, records: list[Any], total: int | None) -> None:
+        """Show a page of jobs; ``total`` None: the count follows (``_show_total``)."""
         table = self.query_one(DataTable)
         keep = self.current_id()
         self.records = {r.id: r for r in records}
-        self.total = total
+        self.counting = total is None
+        # while counting, the total is at least what this page shows (one more if it is full)
+        self.total = total if total is not None else (
+            self.page * self.page_size + len(records) + (len(records) == self.page_size))
         self._fill_rows(records)
         if keep in self.records:
             table.move_cursor(row=table.get_row_index(str(keep)))
         self._update_detail()
         self._update_status()
         self.refresh_bindings()
-        self.loads += 1
+        if not self.counting:
+            self.loads += 1
 
     def _fill_rows(self, records: list[Any]) -> None:
         from workbench.report.jobcard import literal, verdict_text, when
@@ -362,6 +374,14 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         for r in records:
             table.add_row(*(cells[key](r) for key in self.columns), key=str(r.id))
 
+    def _show_total(self, total: int) -> None:
+        """The count of the filter's jobs, read after its page was shown."""
+        self.counting = False
+        self.total = total
+        self._update_status()
+        self.refresh_bindings()
+        self.loads += 1
+
     def _status(self, message: str) -> None:
         self.query_one("#review-status", Static).update(Text(message))
 
@@ -374,6 +394,9 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
             return
         first = self.page * self.page_size + 1
         last = first + len(self.records) - 1
+        if self.counting:
+            self._status(f"{where}: jobs {first}-{last} of …  counting")
+            return
         pages = (self.total + self.page_size - 1) // self.page_size
         self._status(f"{where}: jobs {first}-{last} of {self.total:,}  page {self.page + 1} of {pages}")
 
