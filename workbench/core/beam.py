@@ -232,6 +232,35 @@ def _solve(lay: _Layout, force_at_knot: list[float]):
     return (r_a, r_b), moment, kappa_left, kappa_right, y, theta
 
 
+def _deflection(lay: _Layout, force_at_knot: list[float]) -> list[float]:
+    """The deflection at the knots alone: ``_solve(lay, force_at_knot)[4]``, the same operations in the
+    same order, without keeping the moments, curvatures and slopes (the critical speed needs only this)."""
+    knots, ia, ib = lay.knots, lay.ia, lay.ib
+    xa, xb = knots[ia], knots[ib]
+    total_N = sum(force_at_knot)
+    r_b = -sum([f * (x - xa) for x, f in zip(knots, force_at_knot)]) / (xb - xa)
+    r_a = -total_N - r_b
+    forces = list(force_at_knot)
+    forces[ia] += r_a
+    forces[ib] += r_b
+    y_p = [0.0]
+    shear_N = m = th = yp = 0.0
+    x_left = knots[0]
+    for f, x_right, ei in zip(forces, knots[1:], lay.ei):
+        shear_N += f
+        h = x_right - x_left
+        m_next = m - shear_N * h
+        ka, kb = -m / ei, -m_next / ei
+        yp = yp + th * h + h * h * (2 * ka + kb) / 6
+        th = th + h * (ka + kb) / 2
+        y_p.append(yp)
+        m = m_next
+        x_left = x_right
+    c2 = -(y_p[ib] - y_p[ia]) / (xb - xa)
+    c1 = -y_p[ia] - c2 * xa
+    return [yp + c1 + c2 * x for yp, x in zip(y_p, knots)]
+
+
 def _forces_at_knots(lay: _Layout, loads) -> list[float]:
     knots = lay.knots
     last = len(knots) - 1

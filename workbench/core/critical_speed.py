@@ -30,7 +30,7 @@ import functools
 import math
 from dataclasses import dataclass
 
-from workbench.core.beam import BeamInputError, _layout, _solve
+from workbench.core.beam import BeamInputError, _deflection, _layout
 
 G_M_S2 = 9.80665
 """Standard acceleration of gravity [m/s^2] (CGPM 1901; NIST SP 330). It cancels out of both
@@ -82,7 +82,7 @@ def _rayleigh_omega2(lay, stations) -> float | None:
         forces = [0.0] * len(lay.knots)
         for (k, m), sgn in zip(stations, signs):
             forces[k] += sgn * m * G_M_S2
-        y = _solve(lay, forces)[4]
+        y = _deflection(lay, forces)
         ys = [y[k] for k, _m in stations]
         new_signs = [1.0 if v >= 0 else -1.0 for v in ys]
         if new_signs == signs:
@@ -132,7 +132,7 @@ def _first_critical_speed(segments, supports_m, masses) -> CriticalSpeed:
     for (k, m), (x, _m) in zip(point_stations, points):
         unit = [0.0] * len(lay.knots)
         unit[k] = 1.0
-        delta = _solve(lay, unit)[4][k]  # influence coefficient delta_ii [m/N]
+        delta = _deflection(lay, unit)[k]  # influence coefficient delta_ii [m/N]
         if delta > 0:
             inv += m * delta  # 1/omega_ii^2 = m_i delta_ii
         else:
