@@ -61,8 +61,6 @@ def check_units(field: str, text: str, kind, units) -> None:
             raise QuantityError(field, f"{text!r} is a logarithmic level, not a power; write e.g. 7.5 kW or 10 hp")
     elif kind is SPEED:
         if names == {"minute": -1.0}:
-            from workbench.readings import note
-
             note(field, f"{text!r} (min^-1, as IEC nameplates write it) read as revolutions per minute")
             return
         rotation = [n for n in names if n in _ROTATION_UNITS]
