@@ -374,3 +374,27 @@ async def test_the_page_shows_before_its_count_and_the_count_follows(tmp_path, m
         assert not screen.counting
         status = str(screen.query_one("#review-status", Static).render())
         assert "of 3" in status and "counting" not in status
+
+
+def test_a_long_job_number_widens_the_id_column():
+    from workbench.tui.screens.review import choose_columns
+
+    narrow = dict(choose_columns(100))
+    wide = dict(choose_columns(100, id_width=7))
+    assert narrow["id"] == 5 and wide["id"] == 7
+    assert sum(w + 2 for w in wide.values()) == 100  # the asset column gives the room
+
+
+@run_async
+async def test_seven_digit_job_numbers_are_shown_whole(tmp_path):
+    path = tmp_path / "jobs.sqlite3"
+    with JobLog.open(path) as log:
+        job = log.save(dict(JOB_INPUTS["demo"]), result_for("demo"), asset="Pump P-1")
+        log.conn.execute("UPDATE jobs SET id = 1000050 WHERE id = ?", (job,))  # as in a log of a million
+    app = Host(path)
+    async with app.run_test(size=(120, 40)) as pilot:
+        screen = app.screen
+        await _settle(pilot, screen, 1)
+        assert _ids(screen) == [1000050]
+        table = screen.query_one(DataTable)
+        assert table.columns[table.coordinate_to_cell_key((0, 0)).column_key].width >= 7

@@ -261,9 +261,9 @@ def ensure_text_index(conn: sqlite3.Connection) -> bool:
 
     The index counts as current only in today's layout (schema.TEXT_INDEX_CREATE) with its view
     and all three triggers; an index in an older layout is rebuilt once, in one transaction (about
-    ten seconds per million jobs). If this SQLite lacks FTS5 or the trigram tokenizer, the triggers
-    are dropped (so that saving still works here) and searching falls back to LIKE; the next capable
-    SQLite finds the triggers missing and rebuilds the index from ``jobs.search_text``.
+    40 seconds per million jobs, measured). If this SQLite lacks FTS5 or the trigram tokenizer, the
+    triggers are dropped (so that saving still works here) and searching falls back to LIKE; the
+    next capable SQLite finds the triggers missing and rebuilds the index from ``jobs.search_text``.
     ``conn`` must be in autocommit mode, as for ``migrate``.
     """
     supported = text_index_supported()

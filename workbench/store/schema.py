@@ -46,9 +46,9 @@ V1_TO_V2 = (
 
 # Version 3: a trigram full-text index over search_text, so that a text filter reads a few index
 # pages instead of every row. It is an FTS5 "external content" table: it stores only the index and
-# reads the text from jobs.search_text (through the view below); three triggers keep it in step with every insert, update and
-# delete (save, update, delete, restore, purge, import and any older code path alike), inside the
-# same transaction. SQLite builds without FTS5 or its trigram tokenizer (added in SQLite 3.34) reach
+# reads the text from jobs.search_text (through the view below); three triggers keep it in step
+# with every insert, update and delete (save, update, delete, restore, purge, import and any older
+# code path alike), inside the same transaction. SQLite builds without FTS5 or its trigram tokenizer (added in SQLite 3.34) reach
 # version 3 without the index and filter with LIKE; see migrations.ensure_text_index.
 TEXT_INDEX = "jobs_text"
 TEXT_TRIGGERS = ("jobs_text_insert", "jobs_text_delete", "jobs_text_update")
@@ -60,7 +60,7 @@ TEXT_SOURCE = "jobs_text_source"
 TEXT_SOURCE_CREATE = (
     f"CREATE VIEW {TEXT_SOURCE}(id, search_text) AS SELECT id, search_text || {TEXT_PAD} FROM jobs"
 )
-# Layout 2 of the index (Shaftbench 0.2): detail=none keeps only which jobs hold each trigram, not
+# Layout 2 of the index: detail=none keeps only which jobs hold each trigram, not
 # where (a third of the size of layout 1's detail=full); the content is the padded view above.
 # A word of three or more characters is looked up as all of its trigrams and confirmed with LIKE
 # (the trigrams may sit apart); an older Shaftbench reading a layout-2 index falls back to LIKE.
@@ -97,7 +97,9 @@ TEXT_INDEX_MIN_CHARS = 3
 """The index's tokens are trigrams: a word of three characters or more is looked up by its own
 trigrams; a shorter word by the trigrams that begin with it (layout 2) or with LIKE."""
 TEXT_TERMS = "jobs_text_terms"
-TEXT_TERMS_CREATE = f"CREATE VIRTUAL TABLE IF NOT EXISTS temp.{TEXT_TERMS} USING fts5vocab(main, {TEXT_INDEX}, 'row')"
+TEXT_TERMS_CREATE = (
+    f"CREATE VIRTUAL TABLE IF NOT EXISTS temp.{TEXT_TERMS} USING fts5vocab(main, {TEXT_INDEX}, 'row')"
+)
 """The index's trigrams (one row each), a per-connection table in ``temp`` (the file is not touched)."""
 
 # Version 4: how a job ended, kept with the time of each change. ``fitted_on`` and

@@ -86,6 +86,8 @@ class TrigramSearch:
     conn: sqlite3.Connection
     text_index: bool
     _match_count_cache: tuple[Any, int] | None
+    _terms_ready = False
+    """True once this connection has its ``temp`` term list (schema.TEXT_TERMS)."""
 
     def _text_plan(self, text: str, *, full_count: bool = False) -> TextPlan:
         """Split the filter text into words and, if the trigram index can serve some of them, count
@@ -132,7 +134,7 @@ class TrigramSearch:
         """The index's trigrams that begin with ``word`` (read from the term list, a ``temp``
         fts5vocab table made once per connection); None if the index cannot say."""
         try:
-            if not getattr(self, "_terms_ready", False):
+            if not self._terms_ready:
                 self.conn.execute(schema.TEXT_TERMS_CREATE)
                 self._terms_ready = True
             rows = self.conn.execute(

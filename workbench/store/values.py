@@ -225,13 +225,19 @@ def job_row(
     Without ``uid`` a new random one is made (a fresh save); the caller passes ``content_uid`` for
     jobs that come without one. ``bench`` defaults to ``bench_name()``. ``stored_payload``: the
     payload already encoded for these inputs and result (bulk paths that store one result many
-    times); otherwise it is encoded here."""
+    times; encoding it checked that they are JSON-ready); otherwise it is encoded here."""
     if uid is None:
         import uuid
 
         uid = uuid.uuid4()
-    inputs_json(inputs)  # checks the inputs' shape
-    result_json(result)  # checks the result is a JSON-ready mapping
+    if stored_payload is None:
+        inputs_json(inputs)  # checks the inputs' shape
+        result_json(result)  # checks the result is a JSON-ready mapping
+    elif not (
+        isinstance(inputs, Mapping) and isinstance(result, Mapping)
+        and all(isinstance(k, str) and isinstance(v, str) for k, v in inputs.items())
+    ):  # encoding the payload checked that they are JSON-ready
+        raise LogError("inputs and result: expected the mappings the stored payload was made from")
     text = {name: text_value(meta.get(name), name) for name in META_FIELDS}
     ending = outcome_fields(meta)
     if program_version is None:

@@ -54,11 +54,13 @@ def _valid_date(text: str) -> bool:
     return True
 
 
-def choose_columns(width: int) -> list[tuple[str, int]]:
+def choose_columns(width: int, id_width: int = COLUMNS[0][2]) -> list[tuple[str, int]]:
     """The list's columns for a table ``width`` cells wide, as (key, width): the first four of
-    COLUMNS always, then the others while they fit; the asset column takes the room left over."""
-    chosen = list(COLUMNS[:4])
-    for column in COLUMNS[4:]:
+    COLUMNS always, then the others while they fit; the asset column takes the room left over.
+    ``id_width``: the digits of the longest job number shown (never cut: 1000050 is not 10000)."""
+    columns = [("id", "id", max(COLUMNS[0][2], id_width)), *COLUMNS[1:]]
+    chosen = list(columns[:4])
+    for column in columns[4:]:
         if sum(w + CELL_PADDING for _, _, w in chosen) + column[2] + CELL_PADDING > width:
             break
         chosen.append(column)
@@ -228,6 +230,8 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         """True while the page is shown and its filter's count is still being read."""
         self.columns: tuple[str, ...] = ()
         """Keys of the columns the list shows now (chosen by width, see COLUMNS)."""
+        self._chosen: tuple[tuple[str, int], ...] = ()
+        """The columns and their widths as laid out now."""
 
     # -- layout ---------------------------------------------------------------------------
 
@@ -261,9 +265,11 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         footer.compact = narrow
         footer.show_command_palette = not narrow  # Ctrl+P still opens it; its room goes to our keys
         table_width = width - 2 if narrow else (width * 3) // 5 - 2
-        chosen = choose_columns(table_width)
-        if tuple(key for key, _ in chosen) == self.columns and self.query_one(DataTable).columns:
+        id_width = max((len(str(job_id)) for job_id in self.records), default=0)
+        chosen = choose_columns(table_width, id_width)
+        if tuple(chosen) == self._chosen and self.query_one(DataTable).columns:
             return
+        self._chosen = tuple(chosen)
         self.columns = tuple(key for key, _ in chosen)
         table = self.query_one(DataTable)
         table.clear(columns=True)
@@ -344,6 +350,7 @@ class ReviewScreen(Screen["dict[str, Any] | None"]):
         table = self.query_one(DataTable)
         keep = self.current_id()
         self.records = {r.id: r for r in records}
+        self._fit_to(self.size.width)  # a longer job number widens the id column
         self.counting = total is None
         # while counting, the total is at least what this page shows (one more if it is full)
         self.total = total if total is not None else (
