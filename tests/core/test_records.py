@@ -48,3 +48,13 @@ def test_classes_whose_init_does_more_are_refused():
     for cls in (Checked, Loose):
         with pytest.raises(TypeError):
             built(cls, 1.0)
+
+
+def test_the_step_wrapper_names_the_fields_in_their_order():
+    # steps._step passes its arguments to built() by position: a field added to or moved in Step
+    # must show here, not as a silently shifted value.
+    import inspect
+
+    from workbench.core.steps import _step
+
+    assert list(inspect.signature(_step).parameters) == [f.name for f in fields(Step)]
